@@ -1,0 +1,77 @@
+/// <reference types="vitest/config" />
+import { resolve } from 'node:path';
+import preact from '@preact/preset-vite';
+import { defineConfig, type UserConfig } from 'vite';
+import { VitePWA } from 'vite-plugin-pwa';
+
+const projectRoot = import.meta.dirname;
+
+// `vite build --mode cli` bundles the Node command line (and the coverage benchmark) from the pure core.
+// Any other mode builds the phone app from web/ (index.html lives there).
+export default defineConfig(({ mode }): UserConfig => {
+  if (mode === 'cli') {
+    return {
+      root: projectRoot,
+      publicDir: false,
+      logLevel: 'warn',
+      build: {
+        ssr: true,
+        outDir: resolve(projectRoot, 'dist-cli'),
+        emptyOutDir: true,
+        target: 'node20',
+        rollupOptions: {
+          input: {
+            'sure-enough': resolve(projectRoot, 'src/cli/main.ts'),
+            'coverage-bench': resolve(projectRoot, 'test/bench/coverage-bench.ts'),
+          },
+          output: { entryFileNames: '[name].mjs', format: 'es' },
+        },
+      },
+    };
+  }
+  const testing = process.env.VITEST !== undefined;
+  return {
+    root: resolve(projectRoot, 'web'),
+    publicDir: resolve(projectRoot, 'public'),
+    define: { __APP_VERSION__: JSON.stringify(process.env.APP_VERSION ?? '0.1.0') },
+    build: { outDir: resolve(projectRoot, 'dist'), emptyOutDir: true, target: 'es2022' },
+    preview: { port: 4173, strictPort: true },
+    plugins: [
+      preact(),
+      ...(testing
+        ? []
+        : [
+            VitePWA({
+              strategies: 'injectManifest',
+              srcDir: 'sw',
+              filename: 'sw.ts',
+              registerType: 'prompt',
+              injectRegister: false,
+              manifest: {
+                name: 'Sure Enough — field sampling',
+                short_name: 'Sure Enough',
+                description: 'Records field observations offline and says when you have enough.',
+                start_url: '/',
+                scope: '/',
+                display: 'standalone',
+                orientation: 'portrait',
+                background_color: '#f4f1e8',
+                theme_color: '#17324d',
+                icons: [
+                  { src: 'icon-192.png', sizes: '192x192', type: 'image/png', purpose: 'any' },
+                  { src: 'icon-512.png', sizes: '512x512', type: 'image/png', purpose: 'any' },
+                  { src: 'icon-maskable-512.png', sizes: '512x512', type: 'image/png', purpose: 'maskable' },
+                ],
+              },
+              injectManifest: { globPatterns: ['**/*.{js,css,html}'] },
+            }),
+          ]),
+    ],
+    test: {
+      root: projectRoot,
+      include: ['test/**/*.test.{ts,tsx}'],
+      environment: 'node',
+      testTimeout: 30_000,
+    },
+  };
+});
