@@ -54,6 +54,7 @@ if (u) {
 }
 
 const built = gate('build app', 'npm run -s build') && existsSync('dist/sw.js');
+if (built) gate('shell size budget', 'node .ci/size-check.mjs');
 if (built) {
   const e2e = run('e2e', 'npm run -s test:e2e');
   const e = readJson('test-results/e2e.json');
