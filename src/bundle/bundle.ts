@@ -1,0 +1,121 @@
+/**
+ * The study bundle: a study's setup and its complete event log in one JSON file, with a format
+ * version and a SHA-256 checksum over a canonical serialisation (schema: src/bundle/SCHEMA.md).
+ */
+import type { ObservationRecord, Position, StudyRecord, StudySetup } from '../model/records.ts';
+import { canonicalJson } from './canonical.ts';
+import { sha256Hex } from './sha256.ts';
+
+export const BUNDLE_FORMAT = 'sure-enough-bundle';
+export const BUNDLE_VERSION = 1;
+
+export interface Bundle {
+  format: typeof BUNDLE_FORMAT;
+  version: typeof BUNDLE_VERSION;
+  study: StudyRecord;
+  /** Entries and voids in seq order (seq = 1, 2, 3…). */
+  events: ObservationRecord[];
+  checksum: { algorithm: 'SHA-256'; value: string };
+}
+
+/** SHA-256 (hex) of the canonical JSON (RFC 8785) of `{"events": [...], "study": {...}}`. */
+export function bundleChecksum(study: StudyRecord, events: readonly ObservationRecord[]): string {
+  return sha256Hex(canonicalJson({ study, events }));
+}
+
+/** SHA-256 (hex) of the canonical JSON of the event log alone (shown on the report). */
+export function eventLogHash(events: readonly ObservationRecord[]): string {
+  return sha256Hex(canonicalJson(events));
+}
+
+const SETUP_KEYS: readonly (keyof StudySetup)[] = [
+  'kind',
+  'level',
+  'sided',
+  'method',
+  'target',
+  'rule',
+  'min',
+  'population',
+  'plotArea',
+  'max',
+  'planning',
+  'sprt',
+  'unit',
+  'plotAreaUnit',
+  'outcomeName',
+  'taxon',
+  'samplingProtocol',
+  'reportingLimit',
+];
+const STUDY_KEYS: readonly (keyof StudyRecord)[] = [
+  'id',
+  'name',
+  'createdAt',
+  'setup',
+  'notes',
+  'version',
+  'supersedes',
+];
+const EVENT_KEYS: readonly (keyof ObservationRecord)[] = [
+  'id',
+  'studyId',
+  'seq',
+  'at',
+  'value',
+  'censored',
+  'stratum',
+  'cluster',
+  'position',
+  'note',
+  'device',
+  'voids',
+  'reason',
+  'label',
+];
+
+/** The bundle's known field names (validation refuses any other). */
+export const KNOWN_KEYS = {
+  setup: SETUP_KEYS as readonly string[],
+  study: STUDY_KEYS as readonly string[],
+  event: EVENT_KEYS as readonly string[],
+  position: ['lat', 'lon', 'accuracyM'] as readonly string[],
+};
+
+function pick<T extends object>(source: T, keys: readonly (keyof T)[]): T {
+  const out: Partial<T> = {};
+  for (const k of keys) if (source[k] !== undefined) out[k] = source[k];
+  return out as T;
+}
+
+function copyJson<T>(value: T): T {
+  return value === undefined ? value : (JSON.parse(JSON.stringify(value)) as T);
+}
+
+/**
+ * Builds a bundle from stored records: keeps only the schema's fields (storage-only fields are left
+ * out), orders events by seq, and computes the checksum. The records are copied, not shared.
+ */
+export function makeBundle(study: StudyRecord, events: readonly ObservationRecord[]): Bundle {
+  const s = pick(study, STUDY_KEYS);
+  const cleanStudy: StudyRecord = { ...copyJson(s), setup: copyJson(pick(study.setup, SETUP_KEYS)) };
+  const cleanEvents = [...events]
+    .sort((a, b) => a.seq - b.seq)
+    .map((e) => {
+      const c = copyJson(pick(e, EVENT_KEYS));
+      if (e.position) c.position = pick(e.position, ['lat', 'lon', 'accuracyM'] as (keyof Position)[]);
+      return c;
+    });
+  return {
+    format: BUNDLE_FORMAT,
+    version: BUNDLE_VERSION,
+    study: cleanStudy,
+    events: cleanEvents,
+    checksum: { algorithm: 'SHA-256', value: bundleChecksum(cleanStudy, cleanEvents) },
+  };
+}
+
+/** The bundle as a file: pretty-printed JSON (two-space indent) ending with a newline. */
+export function serializeBundle(bundle: Bundle): string {
+  return `${JSON.stringify(bundle, null, 2)}\n`;
+}

@@ -1,0 +1,104 @@
+/**
+ * Reading an event log: which entries count, which are voided, and the core's Point[] for assess.
+ */
+import type { ObservationRecord } from '../model/records.ts';
+import type { Point } from '../model/types.ts';
+
+export type EventStatus = 'counted' | 'voided' | 'void-record';
+
+/** True for a void event (it withdraws another entry). */
+export function isVoid(e: ObservationRecord): boolean {
+  return e.voids !== undefined;
+}
+
+/** Ids of the entries withdrawn by some void in the log. */
+export function voidedIds(events: readonly ObservationRecord[]): Set<string> {
+  const out = new Set<string>();
+  for (const e of events) if (e.voids !== undefined) out.add(e.voids);
+  return out;
+}
+
+/** Status of every event, by id: `counted` entries, `voided` entries, and `void-record`s. */
+export function statusOf(events: readonly ObservationRecord[]): Map<string, EventStatus> {
+  const voided = voidedIds(events);
+  const out = new Map<string, EventStatus>();
+  for (const e of events) out.set(e.id, isVoid(e) ? 'void-record' : voided.has(e.id) ? 'voided' : 'counted');
+  return out;
+}
+
+/** The counted entries in seq order. */
+export function countedEntries(events: readonly ObservationRecord[]): ObservationRecord[] {
+  const voided = voidedIds(events);
+  return [...events]
+    .sort((a, b) => a.seq - b.seq)
+    .filter((e) => !isVoid(e) && !voided.has(e.id) && e.value !== undefined);
+}
+
+/** The counted entries as the statistics see them (seq order). */
+export function pointsOf(events: readonly ObservationRecord[]): Point[] {
+  return countedEntries(events).map((e) => {
+    const p: Point = { value: e.value as number };
+    if (e.censored) p.censored = true;
+    if (e.stratum !== undefined) p.stratum = e.stratum;
+    if (e.cluster !== undefined) p.cluster = e.cluster;
+    return p;
+  });
+}
+
+export interface LogCounts {
+  /** Entries (counted + voided). */
+  entries: number;
+  counted: number;
+  voided: number;
+  voidRecords: number;
+}
+
+export function logCounts(events: readonly ObservationRecord[]): LogCounts {
+  let counted = 0;
+  let voided = 0;
+  let voidRecords = 0;
+  for (const s of statusOf(events).values()) {
+    if (s === 'counted') counted++;
+    else if (s === 'voided') voided++;
+    else voidRecords++;
+  }
+  return { entries: counted + voided, counted, voided, voidRecords };
+}
+
+export interface CollectorShare {
+  device: string;
+  /** Entries this device recorded (counted + voided). */
+  entries: number;
+  /** Of those, still counted. */
+  counted: number;
+  /** Void events this device recorded. */
+  voids: number;
+  /** counted / all counted entries of the study (0 when none). */
+  share: number;
+}
+
+/** Each collector's (device's) contribution, sorted by device. */
+export function collectorShares(events: readonly ObservationRecord[]): CollectorShare[] {
+  const status = statusOf(events);
+  const by = new Map<string, CollectorShare>();
+  let total = 0;
+  for (const e of events) {
+    let s = by.get(e.device);
+    if (!s) {
+      s = { device: e.device, entries: 0, counted: 0, voids: 0, share: 0 };
+      by.set(e.device, s);
+    }
+    const st = status.get(e.id);
+    if (st === 'void-record') s.voids++;
+    else {
+      s.entries++;
+      if (st === 'counted') {
+        s.counted++;
+        total++;
+      }
+    }
+  }
+  const out = [...by.values()].sort((a, b) => (a.device < b.device ? -1 : a.device > b.device ? 1 : 0));
+  for (const s of out) s.share = total === 0 ? 0 : s.counted / total;
+  return out;
+}

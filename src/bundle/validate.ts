@@ -1,0 +1,341 @@
+/**
+ * Import safety: untrusted text → a typed study bundle, or the list of every problem found, each naming
+ * what and where (`events[12].at: not an ISO 8601 time with UTC offset`). Never a partial bundle.
+ *
+ * Order of checks: JSON syntax; `format` and `version` (a file that is not a bundle, or is from a newer
+ * version, stops here); then every field of `study`, `study.setup` and each event; then links between
+ * events (duplicate ids, voids that point nowhere); and last the checksum, which is only meaningful
+ * once the structure is right.
+ */
+import type { ObservationRecord, StudyRecord } from '../model/records.ts';
+import { BUNDLE_FORMAT, BUNDLE_VERSION, type Bundle, bundleChecksum, KNOWN_KEYS } from './bundle.ts';
+
+export type BundleResult = { ok: true; bundle: Bundle } | { ok: false; problems: string[] };
+
+/** At most this many problems are listed (then "… and N more"). */
+const MAX_PROBLEMS = 50;
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/;
+const ISO_TIME = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2})(\.\d{1,9})?(Z|([+-])(\d{2}):(\d{2}))$/;
+const HEX64 = /^[0-9a-f]{64}$/;
+
+const METHODS: Record<string, readonly string[]> = {
+  measurement: ['t', 'cox', 'land', 'chebyshev'],
+  count: ['t', 'poisson-exact', 'quasi-poisson'],
+  'pass-fail': ['wilson', 'wilson-cc', 'jeffreys', 'clopper-pearson', 'agresti-coull'],
+};
+
+/**
+ * True when `text` is an RFC 3339 date-time (the ISO 8601 profile with seconds and a UTC offset),
+ * with a real calendar date, hours 00–23, minutes and seconds 00–59, and offset within ±23:59.
+ */
+export function isIsoTimeWithOffset(text: string): boolean {
+  const m = ISO_TIME.exec(text);
+  if (!m) return false;
+  const [y, mo, d, h, mi, s] = [m[1], m[2], m[3], m[4], m[5], m[6]].map(Number) as number[];
+  if (mo! < 1 || mo! > 12 || d! < 1 || h! > 23 || mi! > 59 || s! > 59) return false;
+  const daysInMonth = new Date(Date.UTC(y!, mo!, 0)).getUTCDate();
+  if (d! > daysInMonth) return false;
+  if (m[9] !== undefined && (Number(m[10]) > 23 || Number(m[11]) > 59)) return false;
+  return Number.isFinite(Date.parse(text));
+}
+
+/** True for a lower-case RFC 9562 UUID text (8-4-4-4-12 hexadecimal digits). */
+export function isUuid(text: unknown): text is string {
+  return typeof text === 'string' && UUID.test(text);
+}
+
+type Obj = Record<string, unknown>;
+const isObj = (v: unknown): v is Obj => typeof v === 'object' && v !== null && !Array.isArray(v);
+const isNum = (v: unknown): v is number => typeof v === 'number' && Number.isFinite(v);
+const show = (v: unknown): string =>
+  v === null
+    ? 'null'
+    : Array.isArray(v)
+      ? 'an array'
+      : typeof v === 'string'
+        ? `"${v.slice(0, 40)}"`
+        : String(v);
+
+class Problems {
+  list: string[] = [];
+  add(where: string, what: string): void {
+    this.list.push(`${where}: ${what}`);
+  }
+  unknownKeys(where: string, obj: Obj, known: readonly string[]): void {
+    for (const k of Object.keys(obj))
+      if (!known.includes(k)) this.add(`${where}.${k}`, 'unknown field (not in bundle format version 1)');
+  }
+  string(where: string, v: unknown, required: boolean, nonEmpty = false): void {
+    if (v === undefined) {
+      if (required) this.add(where, 'missing');
+    } else if (typeof v !== 'string') this.add(where, `must be text, got ${show(v)}`);
+    else if (nonEmpty && v.trim() === '') this.add(where, 'must not be empty');
+  }
+  number(where: string, v: unknown, required: boolean, test?: (n: number) => boolean, rule?: string): void {
+    if (v === undefined) {
+      if (required) this.add(where, 'missing');
+    } else if (!isNum(v)) this.add(where, `must be a number, got ${show(v)}`);
+    else if (test && !test(v)) this.add(where, `must be ${rule}, got ${v}`);
+  }
+  uuid(where: string, v: unknown, required: boolean): void {
+    if (v === undefined) {
+      if (required) this.add(where, 'missing');
+    } else if (!isUuid(v)) this.add(where, `not a lower-case UUID, got ${show(v)}`);
+  }
+  time(where: string, v: unknown): void {
+    if (v === undefined) this.add(where, 'missing');
+    else if (typeof v !== 'string' || !isIsoTimeWithOffset(v))
+      this.add(
+        where,
+        `not an ISO 8601 time with UTC offset (e.g. 2026-05-04T09:15:00+02:00), got ${show(v)}`,
+      );
+  }
+}
+
+const positiveInt = (n: number) => Number.isInteger(n) && n >= 1;
+
+function checkSetup(p: Problems, setup: unknown): void {
+  const w = 'study.setup';
+  if (setup === undefined) {
+    p.add(w, 'missing');
+    return;
+  }
+  if (!isObj(setup)) {
+    p.add(w, `must be an object, got ${show(setup)}`);
+    return;
+  }
+  p.unknownKeys(w, setup, KNOWN_KEYS.setup);
+  const kind = setup.kind;
+  if (kind === undefined) p.add(`${w}.kind`, 'missing');
+  else if (kind !== 'measurement' && kind !== 'count' && kind !== 'pass-fail')
+    p.add(`${w}.kind`, `must be measurement, count or pass-fail, got ${show(kind)}`);
+  p.number(`${w}.level`, setup.level, true, (n) => n > 0 && n < 1, 'between 0 and 1');
+  if (setup.sided === undefined) p.add(`${w}.sided`, 'missing');
+  else if (!['two', 'upper', 'lower'].includes(setup.sided as string))
+    p.add(`${w}.sided`, `must be two, upper or lower, got ${show(setup.sided)}`);
+  if (setup.method !== undefined) {
+    const allowed = METHODS[kind as string];
+    if (typeof setup.method !== 'string' || (allowed && !allowed.includes(setup.method)))
+      p.add(
+        `${w}.method`,
+        `not a method for ${String(kind)} data${allowed ? ` (${allowed.join(', ')})` : ''}, got ${show(setup.method)}`,
+      );
+  }
+  if (setup.rule === undefined) p.add(`${w}.rule`, 'missing');
+  else if (!['standard', 'strict', 'sprt', 'naive'].includes(setup.rule as string))
+    p.add(`${w}.rule`, `must be standard, strict, sprt or naive, got ${show(setup.rule)}`);
+  p.number(`${w}.min`, setup.min, true, positiveInt, 'a whole number ≥ 1');
+  p.number(`${w}.population`, setup.population, false, positiveInt, 'a whole number ≥ 1');
+  p.number(`${w}.plotArea`, setup.plotArea, false, (n) => n > 0, 'greater than 0');
+  p.number(`${w}.max`, setup.max, false, positiveInt, 'a whole number ≥ 1');
+  p.number(`${w}.reportingLimit`, setup.reportingLimit, false, (n) => n > 0, 'greater than 0');
+  for (const k of ['unit', 'plotAreaUnit', 'outcomeName', 'taxon', 'samplingProtocol'] as const)
+    p.string(`${w}.${k}`, setup[k], false);
+  const t = setup.target;
+  if (t !== undefined) {
+    if (!isObj(t)) p.add(`${w}.target`, `must be an object, got ${show(t)}`);
+    else {
+      const known = t.kind === 'limit' ? ['kind', 'value', 'source', 'date'] : ['kind', 'value'];
+      p.unknownKeys(`${w}.target`, t, known);
+      if (!['margin', 'relative', 'precision', 'limit'].includes(t.kind as string))
+        p.add(`${w}.target.kind`, `must be margin, relative, precision or limit, got ${show(t.kind)}`);
+      p.number(
+        `${w}.target.value`,
+        t.value,
+        true,
+        t.kind === 'limit' ? undefined : (n) => n > 0,
+        'greater than 0',
+      );
+      p.string(`${w}.target.source`, t.source, false);
+      p.string(`${w}.target.date`, t.date, false);
+    }
+  }
+  if (setup.planning !== undefined) {
+    if (!isObj(setup.planning)) p.add(`${w}.planning`, `must be an object, got ${show(setup.planning)}`);
+    else {
+      const keys = ['negBinomialK', 'taylorA', 'taylorB', 'iwaoAlpha', 'iwaoBeta'];
+      p.unknownKeys(`${w}.planning`, setup.planning, keys);
+      for (const k of keys) p.number(`${w}.planning.${k}`, setup.planning[k], false);
+    }
+  }
+  if (setup.sprt !== undefined) {
+    if (!isObj(setup.sprt)) p.add(`${w}.sprt`, `must be an object, got ${show(setup.sprt)}`);
+    else {
+      const s = setup.sprt;
+      p.unknownKeys(`${w}.sprt`, s, ['alpha', 'beta', 'lowerBound', 'upperBound', 'maxN']);
+      const rate = (n: number) => n > 0 && n < 0.5;
+      p.number(`${w}.sprt.alpha`, s.alpha, true, rate, 'between 0 and 0.5');
+      p.number(`${w}.sprt.beta`, s.beta, true, rate, 'between 0 and 0.5');
+      p.number(`${w}.sprt.lowerBound`, s.lowerBound, true);
+      p.number(`${w}.sprt.upperBound`, s.upperBound, true);
+      p.number(`${w}.sprt.maxN`, s.maxN, false, positiveInt, 'a whole number ≥ 1');
+      if (isNum(s.lowerBound) && isNum(s.upperBound) && !(s.lowerBound < s.upperBound))
+        p.add(`${w}.sprt`, 'lowerBound must be below upperBound');
+    }
+  }
+}
+
+function checkStudy(p: Problems, study: unknown): void {
+  if (study === undefined) {
+    p.add('study', 'missing');
+    return;
+  }
+  if (!isObj(study)) {
+    p.add('study', `must be an object, got ${show(study)}`);
+    return;
+  }
+  p.unknownKeys('study', study, KNOWN_KEYS.study);
+  p.uuid('study.id', study.id, true);
+  p.string('study.name', study.name, true, true);
+  p.time('study.createdAt', study.createdAt);
+  p.number('study.version', study.version, true, positiveInt, 'a whole number ≥ 1');
+  p.uuid('study.supersedes', study.supersedes, false);
+  p.string('study.notes', study.notes, false);
+  checkSetup(p, study.setup);
+}
+
+function checkEvent(p: Problems, e: unknown, i: number, study: Obj): void {
+  const w = `events[${i}]`;
+  if (!isObj(e)) {
+    p.add(w, `must be an object, got ${show(e)}`);
+    return;
+  }
+  p.unknownKeys(w, e, KNOWN_KEYS.event);
+  p.uuid(`${w}.id`, e.id, true);
+  if (e.studyId === undefined) p.add(`${w}.studyId`, 'missing');
+  else if (e.studyId !== study.id)
+    p.add(`${w}.studyId`, `${show(e.studyId)} is not this bundle's study (${show(study.id)})`);
+  p.number(`${w}.seq`, e.seq, true, (n) => n === i + 1, `${i + 1} (events are numbered 1, 2, 3… in order)`);
+  p.time(`${w}.at`, e.at);
+  p.string(`${w}.device`, e.device, true, true);
+  for (const k of ['stratum', 'cluster', 'note', 'label'] as const) p.string(`${w}.${k}`, e[k], false);
+  if (e.position !== undefined) {
+    const pos = e.position;
+    if (!isObj(pos)) p.add(`${w}.position`, `must be an object, got ${show(pos)}`);
+    else {
+      p.unknownKeys(`${w}.position`, pos, KNOWN_KEYS.position);
+      p.number(
+        `${w}.position.lat`,
+        pos.lat,
+        true,
+        (n) => n >= -90 && n <= 90,
+        'a latitude in degrees, −90 to 90',
+      );
+      p.number(
+        `${w}.position.lon`,
+        pos.lon,
+        true,
+        (n) => n >= -180 && n <= 180,
+        'a longitude in degrees, −180 to 180',
+      );
+      p.number(`${w}.position.accuracyM`, pos.accuracyM, true, (n) => n >= 0, 'metres ≥ 0');
+    }
+  }
+  if (e.voids !== undefined) {
+    p.uuid(`${w}.voids`, e.voids, true);
+    p.string(`${w}.reason`, e.reason, true, true);
+    if (e.value !== undefined) p.add(`${w}.value`, 'a void event carries no value');
+    if (e.censored !== undefined) p.add(`${w}.censored`, 'a void event carries no value');
+    return;
+  }
+  if (e.reason !== undefined) p.add(`${w}.reason`, 'only void events (with "voids") carry a reason');
+  const kind = isObj(study.setup) ? study.setup.kind : undefined;
+  const v = e.value;
+  if (v === undefined) p.add(`${w}.value`, 'missing (an entry needs a value; a void needs "voids")');
+  else if (!isNum(v)) p.add(`${w}.value`, `must be a number, got ${show(v)}`);
+  else if (kind === 'count' && !(Number.isInteger(v) && v >= 0))
+    p.add(`${w}.value`, `a count must be a whole number ≥ 0, got ${v}`);
+  else if (kind === 'pass-fail' && v !== 0 && v !== 1)
+    p.add(`${w}.value`, `pass/fail must be 1 or 0, got ${v}`);
+  if (e.censored !== undefined) {
+    if (typeof e.censored !== 'boolean')
+      p.add(`${w}.censored`, `must be true or false, got ${show(e.censored)}`);
+    else if (e.censored && kind !== 'measurement')
+      p.add(`${w}.censored`, 'only measurements can be below a reporting limit');
+  }
+}
+
+function checkLinks(p: Problems, events: Obj[]): void {
+  const firstIndex = new Map<string, number>();
+  events.forEach((e, i) => {
+    if (typeof e.id !== 'string') return;
+    const seen = firstIndex.get(e.id);
+    if (seen !== undefined) p.add(`events[${i}].id`, `same id as events[${seen}]`);
+    else firstIndex.set(e.id, i);
+  });
+  events.forEach((e, i) => {
+    if (typeof e.voids !== 'string' || !isUuid(e.voids)) return;
+    const target = firstIndex.get(e.voids);
+    if (target === undefined) p.add(`events[${i}].voids`, `no entry with id ${e.voids} in this bundle`);
+    else if (events[target]!.voids !== undefined)
+      p.add(`events[${i}].voids`, `events[${target}] is itself a void; only entries can be voided`);
+    else if (target === i) p.add(`events[${i}].voids`, 'an event cannot void itself');
+  });
+}
+
+/** Validates untrusted bundle text. Returns the typed bundle, or every problem found (never a partial bundle). */
+export function parseBundle(text: string): BundleResult {
+  let data: unknown;
+  try {
+    data = JSON.parse(text);
+  } catch (err) {
+    return { ok: false, problems: [`file: not valid JSON (${(err as Error).message})`] };
+  }
+  return validateBundle(data);
+}
+
+/** Validates an already-parsed value (see parseBundle). */
+export function validateBundle(data: unknown): BundleResult {
+  const p = new Problems();
+  if (!isObj(data)) return { ok: false, problems: [`file: must be a JSON object, got ${show(data)}`] };
+  if (data.format !== BUNDLE_FORMAT)
+    return {
+      ok: false,
+      problems: [`format: not a study bundle (expected "${BUNDLE_FORMAT}", got ${show(data.format)})`],
+    };
+  if (data.version !== BUNDLE_VERSION) {
+    const newer = isNum(data.version) && data.version > BUNDLE_VERSION;
+    return {
+      ok: false,
+      problems: [
+        `version: this program reads bundle format version ${BUNDLE_VERSION}, got ${show(data.version)}${newer ? ' (made by a newer version; update the program)' : ''}`,
+      ],
+    };
+  }
+  p.unknownKeys('(top level)', data, ['format', 'version', 'study', 'events', 'checksum']);
+  checkStudy(p, data.study);
+  const study = isObj(data.study) ? data.study : {};
+  if (data.events === undefined) p.add('events', 'missing');
+  else if (!Array.isArray(data.events)) p.add('events', `must be an array, got ${show(data.events)}`);
+  else {
+    data.events.forEach((e, i) => {
+      checkEvent(p, e, i, study);
+    });
+    checkLinks(p, data.events.filter(isObj));
+  }
+  const c = data.checksum;
+  if (c === undefined) p.add('checksum', 'missing');
+  else if (!isObj(c)) p.add('checksum', `must be an object, got ${show(c)}`);
+  else {
+    p.unknownKeys('checksum', c, ['algorithm', 'value']);
+    if (c.algorithm !== 'SHA-256') p.add('checksum.algorithm', `must be "SHA-256", got ${show(c.algorithm)}`);
+    if (typeof c.value !== 'string' || !HEX64.test(c.value))
+      p.add('checksum.value', `must be 64 lower-case hexadecimal digits, got ${show(c.value)}`);
+  }
+  if (p.list.length === 0) {
+    const computed = bundleChecksum(data.study as StudyRecord, data.events as ObservationRecord[]);
+    if (computed !== (c as Obj).value)
+      p.add(
+        'checksum.value',
+        `does not match the content (file says ${(c as Obj).value as string}, content gives ${computed}): the file was changed or damaged after export`,
+      );
+  }
+  if (p.list.length > 0) {
+    const extra = p.list.length - MAX_PROBLEMS;
+    const problems = p.list.slice(0, MAX_PROBLEMS);
+    if (extra > 0) problems.push(`… and ${extra} more problems`);
+    return { ok: false, problems };
+  }
+  return { ok: true, bundle: data as unknown as Bundle };
+}

@@ -1,0 +1,110 @@
+/**
+ * Merge: set union by UUID (G-Set, Shapiro et al. 2011 §3.3.1), idempotent, deterministic order,
+ * refusals, duplicate flags and collector shares. Expected counts below are derived by hand from the
+ * constructed logs (evidence: derived).
+ */
+import { describe, expect, it } from 'vitest';
+import { makeBundle, serializeBundle } from '../../../src/bundle/bundle.ts';
+import { pointsOf } from '../../../src/bundle/events.ts';
+import { mergeBundles } from '../../../src/bundle/merge.ts';
+import { parseBundle } from '../../../src/bundle/validate.ts';
+import { entries, study, uuid, voidOf } from './make.ts';
+
+const st = study();
+const a = entries(st, [3, 0, 5, 2], 'phone-A', 2, 0, (i) => ({ label: `Q${i + 1}` }));
+a.push(voidOf(st, a[1]!, 5, uuid(3, 1)));
+// phone B: interleaved in time (starts 30 s later), labels Q3 (clash with A) and Q11, Q12.
+const bRaw = entries(st, [4, 1, 6], 'phone-B', 4, 0, (i) => ({ label: ['Q3', 'Q11', 'Q12'][i]! }));
+const b = bRaw.map((e) => ({ ...e, at: e.at.replace(':00+', ':20+') }));
+const A = makeBundle(st, a);
+const B = makeBundle(st, b);
+
+function merged(x = A, y = B) {
+  const r = mergeBundles(x, y);
+  if (!r.ok) throw new Error(r.message);
+  return r;
+}
+
+describe('mergeBundles', () => {
+  it('union by id, re-sequenced by time, device, id; result validates', () => {
+    const r = merged();
+    expect(r.report.added).toBe(3);
+    expect(r.report.alreadyPresent).toBe(0);
+    const ev = r.bundle.events;
+    expect(ev.map((e) => e.seq)).toEqual([1, 2, 3, 4, 5, 6, 7, 8]);
+    // A at :00 each minute 0..3, B at :20 minutes 0..2, A's void at 09:01:30.
+    expect(ev.map((e) => `${e.device}:${e.label ?? 'void'}`)).toEqual([
+      'phone-A:Q1',
+      'phone-B:Q3',
+      'phone-A:Q2',
+      'phone-B:Q11',
+      'phone-A:void',
+      'phone-A:Q3',
+      'phone-B:Q12',
+      'phone-A:Q4',
+    ]);
+    const check = parseBundle(serializeBundle(r.bundle));
+    expect(check.ok).toBe(true);
+  });
+  it('counted values are the union of both phones (voided entry left out)', () => {
+    const values = pointsOf(merged().bundle.events).map((p) => p.value);
+    expect([...values].sort()).toEqual([1, 2, 3, 4, 5, 6]);
+  });
+  it('the same bundle twice changes nothing', () => {
+    const once = merged().bundle;
+    const twice = mergeBundles(once, B);
+    expect(twice.ok).toBe(true);
+    if (twice.ok) {
+      expect(twice.report.added).toBe(0);
+      expect(twice.report.alreadyPresent).toBe(3);
+      expect(twice.bundle).toBe(once);
+    }
+    const self = mergeBundles(A, A);
+    expect(self.ok && self.bundle).toBe(A);
+  });
+  it('order of pooling does not matter (A+B equals B+A)', () => {
+    expect(serializeBundle(merged(A, B).bundle)).toBe(serializeBundle(merged(B, A).bundle));
+  });
+  it('refuses a different study', () => {
+    const other = study({}, { id: uuid(7, 0), name: 'Other meadow' });
+    const r = mergeBundles(A, makeBundle(other, entries(other, [1], 'phone-C', 6)));
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.message).toMatch(/^refused: different studies \("Sedge plots, north meadow"/);
+  });
+  it('refuses the same study with a different setup, naming the difference', () => {
+    const changed = study({ level: 0.9 });
+    const r = mergeBundles(A, makeBundle(changed, entries(changed, [1], 'phone-C', 6)));
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.message).toContain('level: 0.95 vs 0.9');
+  });
+  it('refuses an event whose content differs between the bundles', () => {
+    const altered = makeBundle(
+      st,
+      a.map((e, i) => (i === 2 ? { ...e, value: 50 } : e)),
+    );
+    const r = mergeBundles(A, altered);
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.message).toContain(a[2]!.id);
+  });
+  it('flags likely duplicates (same label, two devices), keeps both', () => {
+    const r = merged();
+    expect(r.report.duplicates).toEqual([
+      { label: 'Q3', ids: [b[0]!.id, a[2]!.id], devices: ['phone-A', 'phone-B'] },
+    ]);
+    expect(pointsOf(r.bundle.events)).toHaveLength(6);
+  });
+  it('a voided entry with a clashing label is not a duplicate; same label in other strata is not either', () => {
+    const s2 = entries(st, [1, 1], 'phone-C', 8, 10, (i) => ({
+      label: 'Q1',
+      stratum: i === 0 ? 'wet' : 'dry',
+    }));
+    const r = merged(A, makeBundle(st, s2));
+    expect(r.report.duplicates).toEqual([]);
+  });
+  it("reports each collector's share of counted entries", () => {
+    expect(merged().report.shares).toEqual([
+      { device: 'phone-A', entries: 4, counted: 3, voids: 1, share: 0.5 },
+      { device: 'phone-B', entries: 3, counted: 3, voids: 0, share: 0.5 },
+    ]);
+  });
+});

@@ -1,0 +1,220 @@
+/**
+ * Import safety: a malformed bundle gives messages naming what and where; a good one round-trips.
+ * Outside checks: RFC 8785 canonical form compared with Python's json.dumps(sort_keys=True,
+ * separators=(',', ':'), ensure_ascii=False) — identical for data without astral-plane keys or exotic
+ * number forms (RFC 8785 §3.2.3 sorts by UTF-16 units, Python by code points); RFC 3339 §5.6 date-time
+ * grammar for times.
+ */
+import { execFileSync } from 'node:child_process';
+import { describe, expect, it } from 'vitest';
+import { bundleChecksum, makeBundle, serializeBundle } from '../../../src/bundle/bundle.ts';
+import { canonicalJson } from '../../../src/bundle/canonical.ts';
+import { isIsoTimeWithOffset, parseBundle } from '../../../src/bundle/validate.ts';
+import { entries, study, uuid, voidOf } from './make.ts';
+
+function good() {
+  const st = study();
+  const ev = entries(st, [3, 0, 5, 2, 7], 'phone-A', 2, 0, (i) => ({
+    label: `Q${i + 1}`,
+    position: { lat: 52.1 + i / 1000, lon: 5.2, accuracyM: 6 },
+  }));
+  ev.push(voidOf(st, ev[1]!, 6, uuid(3, 1)));
+  return makeBundle(st, ev);
+}
+
+/** Serialise, let `mutate` damage the parsed JSON, and re-checksum unless told not to. */
+// biome-ignore lint/suspicious/noExplicitAny: the test damages arbitrary parsed JSON
+function damaged(mutate: (b: Record<string, any>) => void, rechecksum = true): string {
+  const b = JSON.parse(serializeBundle(good()));
+  mutate(b);
+  if (rechecksum && b.study && Array.isArray(b.events)) {
+    try {
+      b.checksum.value = bundleChecksum(b.study, b.events);
+    } catch {
+      /* values JSON cannot hold stay as they are */
+    }
+  }
+  return JSON.stringify(b);
+}
+
+function problemsOf(text: string): string[] {
+  const r = parseBundle(text);
+  if (r.ok) throw new Error('expected problems');
+  return r.problems;
+}
+
+describe('canonicalJson (RFC 8785) vs Python json.dumps(sort_keys=True)', () => {
+  it('matches on a bundle-like object', () => {
+    const value = {
+      zeta: [1, 2.5, -0.001, 1e-7, 123456789012, { b: true, a: null, ä: 'x' }],
+      alpha: 'quote " backslash \\ newline \n tab \t é 🌿',
+      Mixed: { B: 1, a: 2, _: 3 },
+    };
+    const py = execFileSync(
+      'python3',
+      [
+        '-c',
+        'import sys,json; print(json.dumps(json.load(sys.stdin), sort_keys=True, separators=(",",":"), ensure_ascii=False), end="")',
+      ],
+      { input: JSON.stringify(value), encoding: 'utf8' },
+    );
+    // Python prints 1e-07 where ECMAScript prints 1e-7 (RFC 8785 §3.2.2.3 follows ECMAScript).
+    expect(canonicalJson(value)).toBe(py.replace('1e-07', '1e-7'));
+  });
+  it('RFC 8785 §3.2.3 sorting by UTF-16 code units', () => {
+    // RFC 8785 §3.2.3 example (evidence: memory of the RFC text); it orders "\u20ac" (€), "\r", "\ufb33", "1", "\ud83d\ude00", "\u0080", "\u00f6".
+    const keys = ['\u20ac', '\r', '\ufb33', '1', '\ud83d\ude00', '\u0080', '\u00f6'];
+    const obj = Object.fromEntries(keys.map((k, i) => [k, i]));
+    // (Object.keys would put the integer-like "1" first, so read the order from the text itself.)
+    const expected = ['\r', '1', '\u0080', '\u00f6', '\u20ac', '\ud83d\ude00', '\ufb33'];
+    expect(canonicalJson(obj)).toBe(
+      `{${expected.map((k) => `${JSON.stringify(k)}:${keys.indexOf(k)}`).join(',')}}`,
+    );
+  });
+  it('refuses non-finite numbers', () => {
+    expect(() => canonicalJson({ a: Number.NaN })).toThrow(RangeError);
+  });
+});
+
+describe('isIsoTimeWithOffset (RFC 3339 §5.6)', () => {
+  it.each([
+    '2026-05-04T09:15:00+02:00',
+    '2026-05-04T09:15:00Z',
+    '2026-05-04T09:15:00.123-05:30',
+    '2024-02-29T23:59:59+14:00',
+  ])('accepts %s', (t) => expect(isIsoTimeWithOffset(t)).toBe(true));
+  it.each([
+    '2026-05-04T09:15:00', // no offset
+    '2026-05-04 09:15:00Z', // space
+    '2026-02-29T10:00:00Z', // not a leap year
+    '2026-13-01T10:00:00Z',
+    '2026-05-04T24:00:00Z',
+    '2026-05-04T09:15Z', // no seconds
+    '04/05/2026 09:15',
+    '2026-05-04T09:15:00+25:00',
+  ])('refuses %s', (t) => expect(isIsoTimeWithOffset(t)).toBe(false));
+});
+
+describe('parseBundle', () => {
+  it('round trip: bundle → text → parse gives the identical bundle', () => {
+    const b = good();
+    const r = parseBundle(serializeBundle(b));
+    expect(r.ok).toBe(true);
+    if (r.ok) expect(r.bundle).toEqual(b);
+    if (r.ok) expect(serializeBundle(r.bundle)).toBe(serializeBundle(b));
+  });
+
+  it('bad JSON', () => {
+    const p = problemsOf('{"format": "sure-enough-bundle", ');
+    expect(p).toHaveLength(1);
+    expect(p[0]).toMatch(/^file: not valid JSON/);
+  });
+  it('not an object', () => expect(problemsOf('[1,2]')[0]).toMatch(/^file: must be a JSON object/));
+  it('wrong format', () =>
+    expect(problemsOf(damaged((b) => (b.format = 'something-else')))).toEqual([
+      'format: not a study bundle (expected "sure-enough-bundle", got "something-else")',
+    ]));
+  it('newer version', () =>
+    expect(problemsOf(damaged((b) => (b.version = 2)))[0]).toMatch(
+      /^version: .*got 2 \(made by a newer version/,
+    ));
+  it('failed checksum: one value changed after export', () => {
+    const p = problemsOf(damaged((b) => (b.events[2].value = 6), false));
+    expect(p).toHaveLength(1);
+    expect(p[0]).toMatch(/^checksum\.value: does not match the content/);
+  });
+  it('failed checksum: study name changed after export', () => {
+    expect(problemsOf(damaged((b) => (b.study.name = 'x'), false))[0]).toMatch(/^checksum\.value/);
+  });
+  it('missing checksum', () =>
+    expect(problemsOf(damaged((b) => delete b.checksum))).toEqual(['checksum: missing']));
+  it('missing fields name each place', () => {
+    const p = problemsOf(
+      damaged((b) => {
+        delete b.study.setup.level;
+        delete b.events[3].at;
+        delete b.events[0].device;
+      }),
+    );
+    expect(p).toContain('study.setup.level: missing');
+    expect(p).toContain('events[3].at: missing');
+    expect(p).toContain('events[0].device: missing');
+  });
+  it('bad time names the event', () => {
+    const p = problemsOf(damaged((b) => (b.events[4].at = '2026-05-04 09:15')));
+    expect(p).toEqual([
+      'events[4].at: not an ISO 8601 time with UTC offset (e.g. 2026-05-04T09:15:00+02:00), got "2026-05-04 09:15"',
+    ]);
+  });
+  it('values that do not fit the data kind', () => {
+    const p = problemsOf(
+      damaged((b) => {
+        b.events[0].value = 2.5;
+        b.events[1].value = -1;
+        b.events[2].value = '4';
+      }),
+    );
+    expect(p).toEqual([
+      'events[0].value: a count must be a whole number ≥ 0, got 2.5',
+      'events[1].value: a count must be a whole number ≥ 0, got -1',
+      'events[2].value: must be a number, got "4"',
+    ]);
+  });
+  it('position out of range and swapped', () => {
+    const p = problemsOf(damaged((b) => (b.events[0].position = { lat: 152.1, lon: 5.2, accuracyM: -1 })));
+    expect(p).toEqual([
+      'events[0].position.lat: must be a latitude in degrees, −90 to 90, got 152.1',
+      'events[0].position.accuracyM: must be metres ≥ 0, got -1',
+    ]);
+  });
+  it('seq out of order, duplicate id, dangling void, foreign study id', () => {
+    const p = problemsOf(
+      damaged((b) => {
+        b.events[1].seq = 7;
+        b.events[2].id = b.events[0].id;
+        b.events[5].voids = uuid(9, 9);
+        b.events[3].studyId = uuid(8, 8);
+      }),
+    );
+    expect(p).toContain('events[1].seq: must be 2 (events are numbered 1, 2, 3… in order), got 7');
+    expect(p).toContain('events[2].id: same id as events[0]');
+    expect(p).toContain(`events[5].voids: no entry with id ${uuid(9, 9)} in this bundle`);
+    expect(p.some((x) => x.startsWith('events[3].studyId: '))).toBe(true);
+  });
+  it('unknown fields and a void with a value', () => {
+    const p = problemsOf(
+      damaged((b) => {
+        b.events[5].value = 3;
+        b.study.colour = 'red';
+      }),
+    );
+    expect(p).toContain('study.colour: unknown field (not in bundle format version 1)');
+    expect(p).toContain('events[5].value: a void event carries no value');
+  });
+  it('bad setup', () => {
+    const p = problemsOf(
+      damaged((b) => {
+        b.study.setup.kind = 'weight';
+        b.study.setup.level = 95;
+        b.study.setup.target = { kind: 'margin', value: -2 };
+      }),
+    );
+    expect(p).toContain('study.setup.kind: must be measurement, count or pass-fail, got "weight"');
+    expect(p).toContain('study.setup.level: must be between 0 and 1, got 95');
+    expect(p).toContain('study.setup.target.value: must be greater than 0, got -2');
+  });
+  it('never a partial bundle: any problem means no bundle', () => {
+    const r = parseBundle(damaged((b) => (b.events[4].at = 'yesterday')));
+    expect(r.ok).toBe(false);
+    expect('bundle' in r).toBe(false);
+  });
+  it('lists at most 50 problems', () => {
+    const p = problemsOf(
+      damaged((b) => {
+        for (let i = 0; i < 60; i++) b.events.push({ ...b.events[0], seq: 7 + i, at: 'x', id: uuid(5, i) });
+      }),
+    );
+    expect(p).toHaveLength(51);
+    expect(p[50]).toMatch(/and \d+ more problems/);
+  });
+});
