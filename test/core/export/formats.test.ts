@@ -1,0 +1,256 @@
+/**
+ * Exports checked by things outside the project:
+ * - CSV read back by Python's csv module (RFC 4180 dialect: comma, double quote, CRLF) and compared
+ *   field by field with the event log; the data dictionary describes every column.
+ * - GeoJSON checked rule by rule against RFC 7946 (sections cited beside each check).
+ * - Darwin Core term names checked against the TDWG term list read from the tdwg/dwc repository
+ *   (test/fixtures/handover-dwc-terms.json names the file and commit).
+ */
+import { execFileSync } from 'node:child_process';
+import { readFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { makeBundle } from '../../../src/bundle/bundle.ts';
+import { dataDictionaryCsv, eventsCsv, valueColumnName } from '../../../src/export/csv.ts';
+import { DWC_EVENT_TERMS, DWC_OCCURRENCE_TERMS, dwcTables } from '../../../src/export/dwc.ts';
+import { entriesGeoJson, geoJsonText } from '../../../src/export/geojson.ts';
+import { csvField } from '../../../src/export/rfc4180.ts';
+import { unitSlug } from '../../../src/export/units.ts';
+import { entries, study, uuid, voidOf } from '../bundle/make.ts';
+
+const awkward = [
+  'plain',
+  'comma, inside',
+  'quote " inside',
+  'line\r\nbreak',
+  'ünïcødé 🌿 日本',
+  '=SUM(A1)',
+  ' lead space',
+];
+
+function countBundle() {
+  const st = study({}, { notes: 'Field notes, "first" day' });
+  const ev = entries(st, [3, 0, 5, 2, 7, 0, 1], 'phone-A', 2, 0, (i) => ({
+    label: `Q${i + 1}`,
+    note: awkward[i],
+    ...(i !== 3
+      ? { position: { lat: 52.0907 + i / 10000, lon: 5.1214 - i / 10000, accuracyM: i === 5 ? 0 : 4 + i } }
+      : {}),
+    ...(i === 6 ? { stratum: 'wet', cluster: 'T2' } : {}),
+  }));
+  ev.push(voidOf(st, ev[2]!, 8, uuid(3, 1), 'plot counted twice, "Q3"'));
+  return makeBundle(st, ev);
+}
+
+function measurementBundle() {
+  const st = study({
+    kind: 'measurement',
+    unit: 'mg/kg',
+    outcomeName: 'lead in topsoil',
+    plotArea: undefined,
+    taxon: undefined,
+  });
+  const ev = entries(st, [12.5, 0.5, 301, 44.25], 'phone-B', 4, 0, (i) =>
+    i === 1 ? { censored: true } : {},
+  );
+  return makeBundle(st, ev);
+}
+
+/** Python's csv module reads the text (newline='' as its docs require) and returns rows as JSON. */
+function pythonCsv(text: string): string[][] {
+  const out = execFileSync(
+    'python3',
+    [
+      '-c',
+      'import sys,csv,io,json\nraw=sys.stdin.buffer.read().decode("utf-8")\nprint(json.dumps(list(csv.reader(io.StringIO(raw, newline=""), strict=True))))',
+    ],
+    { input: Buffer.from(text, 'utf8'), encoding: 'utf8' },
+  );
+  return JSON.parse(out);
+}
+
+describe('CSV (RFC 4180) read back by Python csv', () => {
+  const b = countBundle();
+  const text = eventsCsv(b);
+  const rows = pythonCsv(text);
+  const [header, ...body] = rows;
+
+  it('every record ends with CRLF (RFC 4180 §2 rules 1–2), no bare LF outside quotes', () => {
+    expect(text.endsWith('\r\n')).toBe(true);
+    // Remove quoted fields; what is left must only have CRLF line ends.
+    const unquoted = text.replace(/"(?:[^"]|"")*"/g, '');
+    expect(unquoted.split('\r\n').every((line) => !line.includes('\n') && !line.includes('\r'))).toBe(true);
+  });
+  it('one row per event including voids, with status', () => {
+    expect(body).toHaveLength(b.events.length);
+    const st = body.map((r) => r[header!.indexOf('status')]);
+    expect(st).toEqual([
+      'counted',
+      'counted',
+      'voided',
+      'counted',
+      'counted',
+      'counted',
+      'counted',
+      'void-record',
+    ]);
+  });
+  it('fields come back exactly (commas, quotes, CRLF, non-ASCII)', () => {
+    const note = header!.indexOf('note');
+    expect(body.slice(0, 7).map((r) => r[note])).toEqual(awkward);
+    expect(body[7]![header!.indexOf('void_reason')]).toBe('plot counted twice, "Q3"');
+    expect(body[7]![header!.indexOf('voids')]).toBe(b.events[2]!.id);
+    const vcol = header!.indexOf('count_per_plot');
+    expect(body.map((r) => r[vcol])).toEqual(['3', '0', '5', '2', '7', '0', '1', '']);
+    expect(body[0]![header!.indexOf('at')]).toBe('2026-05-04T09:00:00+02:00');
+    expect(Number(body[1]![header!.indexOf('latitude')])).toBe(b.events[1]!.position!.lat);
+    expect(Number(body[1]![header!.indexOf('longitude')])).toBe(b.events[1]!.position!.lon);
+    expect(body[3]![header!.indexOf('latitude')]).toBe('');
+  });
+  it('all rows have the header width', () => {
+    for (const r of body) expect(r).toHaveLength(header!.length);
+  });
+  it('the data dictionary describes every column, in order', () => {
+    const dict = pythonCsv(dataDictionaryCsv(b));
+    expect(dict[0]).toEqual(['column', 'type', 'unit', 'description', 'allowed_values']);
+    expect(dict.slice(1).map((r) => r[0])).toEqual(header);
+    for (const r of dict.slice(1)) expect(r[3]!.length).toBeGreaterThan(10);
+  });
+  it('measurement: unit in the value header, censored column', () => {
+    const m = measurementBundle();
+    const [h, ...r] = pythonCsv(eventsCsv(m));
+    expect(h).toContain('value_mg_per_kg');
+    expect(r.map((x) => x[h!.indexOf('censored')])).toEqual(['false', 'true', 'false', 'false']);
+    expect(r.map((x) => Number(x[h!.indexOf('value_mg_per_kg')]))).toEqual([12.5, 0.5, 301, 44.25]);
+    const dict = pythonCsv(dataDictionaryCsv(m));
+    expect(dict.find((x) => x[0] === 'value_mg_per_kg')![2]).toBe('mg/kg');
+  });
+  it('field quoting by RFC 4180 §2 rules 6–7', () => {
+    expect(csvField('a')).toBe('a');
+    expect(csvField('a,b')).toBe('"a,b"');
+    expect(csvField('say "hi"')).toBe('"say ""hi"""');
+    expect(csvField('x\ny')).toBe('"x\ny"');
+    expect(csvField(undefined)).toBe('');
+  });
+  it('unit slugs for headers', () => {
+    expect(unitSlug('mg/kg')).toBe('mg_per_kg');
+    expect(unitSlug('ug/L')).toBe('ug_per_L');
+    expect(unitSlug('µg/m3')).toBe('ug_per_m3');
+    expect(unitSlug('%')).toBe('percent');
+    expect(
+      valueColumnName({ kind: 'measurement', level: 0.95, sided: 'two', rule: 'standard', min: 10 }),
+    ).toBe('value');
+  });
+});
+
+describe('GeoJSON (RFC 7946)', () => {
+  const b = countBundle();
+  const parsed = JSON.parse(geoJsonText(b));
+
+  it('§3.3: a FeatureCollection with a "features" array', () => {
+    expect(parsed.type).toBe('FeatureCollection');
+    expect(Array.isArray(parsed.features)).toBe(true);
+  });
+  it('§4: no "crs" member anywhere', () => {
+    expect(JSON.stringify(parsed)).not.toContain('"crs"');
+  });
+  it('§3.2: each Feature has "type", "geometry" and "properties" (an object); id is a string', () => {
+    for (const f of parsed.features) {
+      expect(f.type).toBe('Feature');
+      expect(f).toHaveProperty('geometry');
+      expect(typeof f.properties).toBe('object');
+      expect(typeof f.id).toBe('string');
+    }
+  });
+  it('§3.1.2 / §3.1.1: Point with one position [longitude, latitude], numbers only', () => {
+    const positioned = b.events.filter((e) => e.position && e.voids === undefined);
+    expect(parsed.features).toHaveLength(positioned.length);
+    parsed.features.forEach((f: { geometry: { type: string; coordinates: number[] } }, i: number) => {
+      expect(f.geometry.type).toBe('Point');
+      expect(f.geometry.coordinates).toHaveLength(2);
+      expect(f.geometry.coordinates[0]).toBe(positioned[i]!.position!.lon);
+      expect(f.geometry.coordinates[1]).toBe(positioned[i]!.position!.lat);
+      expect(Math.abs(f.geometry.coordinates[0]!)).toBeLessThanOrEqual(180);
+      expect(Math.abs(f.geometry.coordinates[1]!)).toBeLessThanOrEqual(90);
+    });
+  });
+  it('accuracy is a property; voided entries are marked; entries without position left out', () => {
+    const fc = entriesGeoJson(b);
+    expect(fc.features.map((f) => f.properties.accuracy_m)).toEqual([4, 5, 6, 8, 0, 10]);
+    expect(fc.features.map((f) => f.properties.status)).toEqual([
+      'counted',
+      'counted',
+      'voided',
+      'counted',
+      'counted',
+      'counted',
+    ]);
+    expect(fc.features.some((f) => f.properties.label === 'Q4')).toBe(false);
+  });
+  it('§7: no foreign member reuses a GeoJSON member name inside properties', () => {
+    for (const f of parsed.features)
+      for (const k of ['type', 'geometry', 'coordinates', 'features'])
+        expect(f.properties).not.toHaveProperty(k);
+  });
+});
+
+describe('Darwin Core tables', () => {
+  const fixture = JSON.parse(
+    readFileSync(new URL('../../fixtures/handover-dwc-terms.json', import.meta.url), 'utf8'),
+  );
+  const tdwg = new Set<string>(fixture.tdwgTerms);
+  const b = countBundle();
+  const r = dwcTables(b);
+  if (!r.ok) throw new Error(r.message);
+  const ev = pythonCsv(r.event);
+  const occ = pythonCsv(r.occurrence);
+
+  it('the terms used are exactly the fixture list, each spelled as in the TDWG term list', () => {
+    expect([...DWC_EVENT_TERMS]).toEqual(fixture.termsUsed.event);
+    expect([...DWC_OCCURRENCE_TERMS]).toEqual(fixture.termsUsed.occurrence);
+    for (const t of [...DWC_EVENT_TERMS, ...DWC_OCCURRENCE_TERMS]) expect(tdwg.has(t), t).toBe(true);
+    expect(ev[0]).toEqual(fixture.termsUsed.event);
+    expect(occ[0]).toEqual(fixture.termsUsed.occurrence);
+  });
+  it('a misspelling would be caught (the check can fail)', () => {
+    expect(tdwg.has('decimalLatitudes')).toBe(false);
+    expect(tdwg.has('coordinateUncertaintyInMetres')).toBe(false);
+  });
+  it('one parent event, one child event and one occurrence per counted plot; zeros kept as absences', () => {
+    const counted = 6; // 7 entries, one voided
+    expect(ev).toHaveLength(1 + 1 + counted);
+    expect(occ).toHaveLength(1 + counted);
+    const col = (rows: string[][], t: string) => rows.slice(1).map((x) => x[rows[0]!.indexOf(t)]);
+    expect(col(occ, 'individualCount')).toEqual(['3', '0', '2', '7', '0', '1']);
+    expect(col(occ, 'occurrenceStatus')).toEqual([
+      'present',
+      'absent',
+      'present',
+      'present',
+      'absent',
+      'present',
+    ]);
+    expect(new Set(col(occ, 'basisOfRecord'))).toEqual(new Set(['HumanObservation']));
+    expect(new Set(col(occ, 'scientificName'))).toEqual(new Set(['Carex nigra']));
+    expect(col(occ, 'eventID')).toEqual(col(ev, 'eventID').slice(1));
+  });
+  it('effort, place and time on the events', () => {
+    const col = (t: string) => ev.slice(1).map((x) => x[ev[0]!.indexOf(t)]);
+    expect(col('parentEventID')).toEqual(['', ...Array(6).fill(b.study.id)]);
+    expect(col('sampleSizeValue').slice(1)).toEqual(Array(6).fill('0.25'));
+    expect(col('sampleSizeUnit').slice(1)).toEqual(Array(6).fill('square metre'));
+    expect(col('eventDate')[0]).toBe('2026-05-04T09:00:00+02:00/2026-05-04T09:06:00+02:00');
+    expect(col('geodeticDatum').slice(1)).toEqual(
+      ['WGS84', 'WGS84', 'WGS84', 'WGS84', 'WGS84', 'WGS84'].map((x, i) => (i === 2 ? '' : x)),
+    );
+    // accuracy 0 is not a valid coordinateUncertaintyInMeters: left empty
+    expect(col('coordinateUncertaintyInMeters').slice(1)).toEqual(['4', '5', '', '8', '', '10']);
+    expect(col('eventRemarks')[6]).toBe('stratum: wet; cluster: T2;  lead space');
+  });
+  it('refuses non-count studies and a missing taxon', () => {
+    const m = dwcTables(measurementBundle());
+    expect(m.ok).toBe(false);
+    const st = study({ taxon: undefined });
+    const nt = dwcTables(makeBundle(st, entries(st, [1], 'x', 2)));
+    expect(nt.ok === false && nt.message).toMatch(/taxon/);
+  });
+});
