@@ -1,87 +1,45 @@
 /**
- * The seam between the fixed-n statistics (src/assess.ts) and the stopping rules (src/stop/).
+ * The stopping rules (src/stop/), behind one seam: `decide(ctx, setup)`, called by assess() once the
+ * shared guards (minimum n, zero spread, one distinct value, all-zero counts) have passed.
  *
- * assess() first applies the guards every rule shares (minimum n, zero spread, one distinct value,
- * all-zero counts; see the Verdict reasons in src/model/types.ts). Only when they pass does it call
- * `decide`, handing over a RuleContext that can compute the data kind's interval at any level.
- * The rule chooses the level it checks and reports (standard: a calibrated inflated level; strict: a
- * level valid under continuous monitoring; sprt: Wald's boundaries), and returns the verdict.
+ * - standard (default): the data kind's interval at a calibrated inflated level (standard.ts)
+ * - strict: Stein two-stage / confidence sequence (strict.ts)
+ * - sprt: Wald's sequential probability ratio test against a limit (sprt.ts)
+ * - naive: no correction (comparison only, naive.ts)
+ *
+ * The setup screen's figures come from sprtBoundaries, sprtOperatingCharacteristic, strictCost,
+ * standardLevel and ruleWarnings, re-exported here. See README.md in this folder.
  */
-import type { AnalysisSetup, DataKind, Sided, VerdictStatus } from '../model/types.ts';
+import type { AnalysisSetup } from '../model/types.ts';
+import { naiveRule } from './naive.ts';
+import type { RuleContext, RuleDecision } from './rule-context.ts';
+import { sprtRule } from './sprt.ts';
+import { standardRule } from './standard.ts';
+import { strictRule } from './strict.ts';
 
-export interface Interval {
-  estimate: number;
-  lower: number;
-  upper: number;
-  /** Standard error of the estimate when the method has one (needed by the `precision` target). */
-  se?: number;
-}
-
-export type TargetCheck = 'met' | 'not-met' | 'below' | 'above' | 'undecided';
-
-export interface RuleContext {
-  kind: DataKind;
-  n: number;
-  /** The data kind's chosen interval (method from setup) at this confidence level and sidedness. */
-  intervalAt(level: number, sided: Sided): Interval;
-  /** Whether this interval meets the setup's target (margin / relative / precision / limit). */
-  check(interval: Interval): TargetCheck;
-  /** Sufficient statistics some rules need (SPRT on totals or log means, Stein's pilot). */
-  stats: {
-    total: number;
-    mean: number;
-    sd: number;
-    logMean: number | null;
-    logSd: number | null;
-  };
-  /** The observations in entry order (for rules that look back, e.g. Stein's pilot); do not mutate. */
-  values: readonly number[];
-}
-
-export interface RuleDecision {
-  status: VerdictStatus;
-  /** The interval the rule reports (at `reportedLevel`). */
-  interval: Interval;
-  reportedLevel: number;
-  message: string;
-  /** Plain-words name of the rule, for the method statement. */
-  ruleLabel: string;
-}
-
-/**
- * Naive rule: stop the first time the nominal-level interval meets the target. Kept for comparison in
- * `replay` and the coverage benchmark; its coverage is known to fall short (METHODS §4.8).
- */
-function naive(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
-  const interval = ctx.intervalAt(setup.level, setup.sided);
-  const check = ctx.check(interval);
-  const status: VerdictStatus =
-    check === 'met'
-      ? 'enough'
-      : check === 'below'
-        ? 'below limit'
-        : check === 'above'
-          ? 'above limit'
-          : 'keep going';
-  return {
-    status,
-    interval,
-    reportedLevel: setup.level,
-    message:
-      status === 'keep going'
-        ? 'The interval does not meet the target yet.'
-        : 'The interval meets the target.',
-    ruleLabel: 'naive (no correction for looking after every entry)',
-  };
-}
+export { betaBinomialConfidenceSequence } from './beta-binomial-confidence-sequence.ts';
+export { greenStopLine } from './green-stop-line.ts';
+export { kunoStopLine } from './kuno-stop-line.ts';
+export type { Interval, RuleContext, RuleDecision, TargetCheck } from './rule-context.ts';
+export { ruleWarnings } from './rule-warnings.ts';
+export { sprtMaxN, sprtModelOf } from './sprt.ts';
+export { type SprtFamily, type SprtLines, type SprtModel, sprtBoundaries } from './sprt-boundaries.ts';
+export { sprtFixedSize } from './sprt-fixed-size.ts';
+export { sprtOperatingCharacteristic } from './sprt-operating-characteristic.ts';
+export { standardLevel } from './standard-level.ts';
+export { steinTwoStage } from './stein-two-stage.ts';
+export { twoStagePlan } from './strict.ts';
+export { strictCost } from './strict-cost.ts';
 
 export function decide(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
   switch (setup.rule) {
     case 'naive':
+      return naiveRule(ctx, setup);
     case 'standard':
+      return standardRule(ctx, setup);
     case 'strict':
+      return strictRule(ctx, setup);
     case 'sprt':
-      // The standard, strict and SPRT rules are being built in src/stop/; until then all fall back to naive.
-      return naive(ctx, setup);
+      return sprtRule(ctx, setup);
   }
 }

@@ -1,0 +1,33 @@
+/**
+ * Naive rule — stop the first time the nominal-level interval meets the target.
+ *
+ * Question answered: "what happens if we simply recompute after every entry and stop when it looks good?"
+ * Kept only for comparison (`replay --rule naive`, the coverage benchmark). Its realised coverage falls
+ * short of the nominal level because stopping is triggered preferentially when the spread happens to be
+ * low (Anscombe 1952, Proc. Camb. Phil. Soc. 48:600–607; Woodroofe 1977, Ann. Stat. 5:984–995; METHODS
+ * §4.1, §4.8: about 0.77 for a "95 %" interval on lognormal data with CV 2).
+ *
+ * Preconditions: the shared guards (minimum, zero spread, …) have passed upstream.
+ * Returns: the verdict and the interval at the nominal level.
+ * Validity: none beyond a fixed sample size — descriptive only.
+ *
+ * @example naiveRule(ctx, { ...setup, rule: 'naive' }).reportedLevel // = setup.level
+ */
+import type { AnalysisSetup } from '../model/types.ts';
+import type { RuleContext, RuleDecision } from './rule-context.ts';
+import { statusOf } from './status-of.ts';
+
+export function naiveRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
+  const interval = ctx.intervalAt(setup.level, setup.sided);
+  const status = statusOf(ctx.check(interval));
+  return {
+    status,
+    interval,
+    reportedLevel: setup.level,
+    message:
+      status === 'keep going'
+        ? 'The interval does not meet the target yet.'
+        : 'The interval meets the target (no correction for looking after every entry).',
+    ruleLabel: 'naive (no correction for looking after every entry)',
+  };
+}

@@ -1,0 +1,54 @@
+/**
+ * The contract between the fixed-n statistics (src/assess.ts) and the stopping rules (src/stop/).
+ *
+ * assess() first applies the guards every rule shares (minimum n, zero spread, one distinct value,
+ * all-zero counts; see the Verdict reasons in src/model/types.ts). Only when they pass does it call
+ * `decide`, handing over a RuleContext that can compute the data kind's interval at any level.
+ * The rule chooses the level it checks and reports (standard: a calibrated inflated level; strict: a
+ * level valid under continuous monitoring; sprt: Wald's boundaries), and returns the verdict.
+ */
+import type { DataKind, Sided, VerdictStatus } from '../model/types.ts';
+
+export interface Interval {
+  estimate: number;
+  lower: number;
+  upper: number;
+  /** Standard error of the estimate when the method has one (needed by the `precision` target). */
+  se?: number;
+}
+
+export type TargetCheck = 'met' | 'not-met' | 'below' | 'above' | 'undecided';
+
+export interface RuleContext {
+  kind: DataKind;
+  n: number;
+  /** The data kind's chosen interval (method from setup) at this confidence level and sidedness. */
+  intervalAt(level: number, sided: Sided): Interval;
+  /** Whether this interval meets the setup's target (margin / relative / precision / limit). */
+  check(interval: Interval): TargetCheck;
+  /** Sufficient statistics some rules need (SPRT on totals or log means, Stein's pilot). */
+  stats: {
+    total: number;
+    mean: number;
+    sd: number;
+    logMean: number | null;
+    logSd: number | null;
+  };
+  /** The observations in entry order (for rules that look back, e.g. Stein's pilot); do not mutate. */
+  values: readonly number[];
+  /**
+   * True when the caller needs only the verdict (replay, benchmark): while the verdict is `keep going`
+   * a rule may then skip computing an expensive reported interval and return the nominal one.
+   */
+  verdictOnly?: boolean;
+}
+
+export interface RuleDecision {
+  status: VerdictStatus;
+  /** The interval the rule reports (at `reportedLevel`). */
+  interval: Interval;
+  reportedLevel: number;
+  message: string;
+  /** Plain-words name of the rule, for the method statement. */
+  ruleLabel: string;
+}

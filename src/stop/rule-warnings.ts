@@ -1,0 +1,65 @@
+/**
+ * Plain warnings for regimes where a stopping rule is known (from the coverage benchmark) not to keep
+ * its promise — shown in the setup and beside the verdict.
+ *
+ * Source: test/bench/coverage.md (this project's Monte Carlo benchmark of METHODS §7, R = 20,000 per
+ * cell) and METHODS §4.8. Each warning names the shortfall measured there.
+ *
+ * Preconditions: none. Returns a list of plain-language sentences (empty when nothing to warn about).
+ *
+ * @example ruleWarnings({ kind: 'measurement', level: 0.95, sided: 'two', rule: 'naive', min: 10 })[0]
+ * // "The naive rule …"
+ */
+import type { AnalysisSetup } from '../model/types.ts';
+
+export function ruleWarnings(setup: AnalysisSetup): string[] {
+  const w: string[] = [];
+  const { kind, rule, method, target } = setup;
+  if (rule === 'naive')
+    w.push(
+      'The naive rule stops the first time the interval looks narrow enough; its "95 %" interval then holds the true value less often (as low as 77 % for very skewed data, 19 % for rare pass/fail outcomes). Use it only for comparison.',
+    );
+  if (setup.min < 10 && rule !== 'sprt')
+    w.push(
+      'A minimum below 10 observations makes early stops on a lucky run likely; 10 or more is recommended.',
+    );
+  if (
+    kind === 'measurement' &&
+    (rule === 'standard' || rule === 'naive') &&
+    method !== 'cox' &&
+    method !== 'land'
+  )
+    w.push(
+      'If the values are skewed (most small, a few large — typical of concentrations), choose the log-scale (Cox) method: on the raw scale the stopped interval covers the mean only about 80 % of the time when the spread is as large as the mean twice over (CV 2).',
+    );
+  if (kind === 'count' && (rule === 'standard' || rule === 'naive')) {
+    const k = setup.planning?.negBinomialK;
+    if (k === undefined || k < 1)
+      w.push(
+        'Strongly clumped counts (many empty plots and a few crowded ones, negative-binomial k below 1) with a loose target: the interval at the stop covers the mean less often than stated when fewer than about 50 plots are needed. Set a larger minimum (20–30) for such organisms.',
+      );
+  }
+  if (kind === 'pass-fail' && setup.min < 30 && (rule === 'standard' || rule === 'naive'))
+    w.push(
+      'For rare outcomes (under about 5 %), a minimum of 20–30 items is recommended before any verdict.',
+    );
+  if (rule === 'strict' && kind !== 'pass-fail') {
+    if (target?.kind === 'limit')
+      w.push(
+        'The strict rule does not decide against a limit for measurements or counts; choose the limit decision.',
+      );
+    else if (target?.kind !== 'margin' || kind === 'count' || method === 'cox')
+      w.push(
+        'The strict two-stage plan is exact only for near-normal measurements with a ± margin; for this target or data kind its guarantee is approximate (see the coverage benchmark).',
+      );
+  }
+  if (rule === 'sprt' && kind === 'measurement')
+    w.push(
+      "The limit decision on measurements uses the pilot's spread as if it were known; its error rates can exceed the chosen ones when the pilot is small.",
+    );
+  if (rule === 'sprt' && kind === 'count' && setup.planning?.negBinomialK === undefined)
+    w.push(
+      'The limit decision on counts assumes random (Poisson) counts unless you give the negative-binomial k; with clumped counts and no k its error rates are much larger than chosen.',
+    );
+  return w;
+}

@@ -1,0 +1,97 @@
+/**
+ * The limit decision — Wald's sequential probability ratio test run after every entry, with a
+ * three-zone verdict: `below limit`, `above limit`, `keep going`.
+ *
+ * For a field user: you set the limit's indifference zone (a value you can accept and a value you must
+ * catch) and the two risks. After the minimum number of entries the app compares your running total with
+ * two lines (sprt-boundaries.ts) and answers as soon as the evidence is strong enough either way. If the
+ * planned maximum is reached first, it answers by which side of the middle line you are on, and says so.
+ *
+ * For an analyst: family by data kind — pass/fail → Bernoulli on the number of counted outcomes; count
+ * → Poisson on the total, or negative binomial (Waters 1955) when planning.negBinomialK is given;
+ * measurement → normal on ln x with σ = the pilot's log SD (first `min` values) and θ the arithmetic
+ * means (μᵢ = ln θᵢ − σ²/2), or normal on x itself when the study's method is `t`. Truncation at
+ * maxN = sprt.maxN ?? setup.max ?? ⌈3 × the fixed-size equivalent⌉ (sprt-fixed-size.ts), deciding by
+ * the midline Sₙ ≤ s·n → below (METHODS §4.6). The reported interval is the data kind's interval at the
+ * nominal level (descriptive).
+ *
+ * Preconditions: setup.sprt present (otherwise the verdict stays `keep going` with an explanation); the
+ * shared guards have passed.
+ * Returns: the three-zone verdict and the nominal interval.
+ * Validity: exact Wald bounds on the error rates for the Bernoulli/Poisson/negative-binomial families when
+ * the model holds; the measurement version is approximate (σ from the pilot), see the benchmark.
+ *
+ * @example sprtRule(ctx, { ...setup, rule: 'sprt', sprt: { alpha: 0.05, beta: 0.1, lowerBound: 0.01, upperBound: 0.06 } })
+ */
+import type { AnalysisSetup, VerdictStatus } from '../model/types.ts';
+import { pilotStats } from './pilot-stats.ts';
+import type { RuleContext, RuleDecision } from './rule-context.ts';
+import { type SprtModel, sprtBoundaries } from './sprt-boundaries.ts';
+import { sprtFixedSize } from './sprt-fixed-size.ts';
+
+/** Builds the SPRT model of a study (σ from the pilot for measurements; null while it is missing). */
+export function sprtModelOf(setup: AnalysisSetup, values: readonly number[]): SprtModel | null {
+  const s = setup.sprt;
+  if (!s) return null;
+  const base = { theta0: s.lowerBound, theta1: s.upperBound, alpha: s.alpha, beta: s.beta };
+  if (setup.kind === 'pass-fail') return { family: 'bernoulli', ...base };
+  if (setup.kind === 'count') {
+    const k = setup.planning?.negBinomialK;
+    return k !== undefined ? { family: 'negative-binomial', k, ...base } : { family: 'poisson', ...base };
+  }
+  const m = Math.max(2, setup.min);
+  if (values.length < m) return null;
+  const log = setup.method !== 't';
+  for (let i = 0; i < m; i++) if (log && !((values[i] as number) > 0)) return null;
+  const sigma = pilotStats(values, m, log).sd;
+  if (!(sigma > 0)) return null;
+  return { family: log ? 'lognormal' : 'normal', sigma, ...base };
+}
+
+/** Truncation point of the test. */
+export function sprtMaxN(setup: AnalysisSetup, model: SprtModel): number {
+  return setup.sprt?.maxN ?? setup.max ?? Math.max(setup.min, Math.ceil(3 * sprtFixedSize(model)));
+}
+
+export function sprtRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
+  const label = "limit decision (Wald's sequential probability ratio test)";
+  const nominal = () => ctx.intervalAt(setup.level, setup.sided);
+  const model = sprtModelOf(setup, ctx.values);
+  if (model === null)
+    return {
+      status: 'keep going',
+      interval: nominal(),
+      reportedLevel: setup.level,
+      message: setup.sprt
+        ? 'The limit decision on measurements needs a pilot of positive values with some spread.'
+        : 'The limit decision needs the two risks and the indifference zone (setup).',
+      ruleLabel: label,
+    };
+  if (model.family === 'lognormal' && ctx.stats.logMean === null)
+    return {
+      status: 'keep going',
+      interval: nominal(),
+      reportedLevel: setup.level,
+      message: 'A value at or below zero: the log-scale limit decision cannot continue; use a t bound.',
+      ruleLabel: label,
+    };
+  const lines = sprtBoundaries(model);
+  const n = ctx.n;
+  const S = model.family === 'lognormal' ? n * (ctx.stats.logMean as number) : ctx.stats.total;
+  const acceptAt = -lines.h0 + lines.slope * n;
+  const rejectAt = lines.h1 + lines.slope * n;
+  const maxN = sprtMaxN(setup, model);
+  let status: VerdictStatus = 'keep going';
+  let message = `Keep going: the running statistic ${S.toFixed(3)} lies between ${acceptAt.toFixed(3)} and ${rejectAt.toFixed(3)}.`;
+  if (S <= acceptAt) {
+    status = 'below limit';
+    message = 'The evidence says below the limit (lower decision line reached).';
+  } else if (S >= rejectAt) {
+    status = 'above limit';
+    message = 'The evidence says above the limit (upper decision line reached).';
+  } else if (n >= maxN) {
+    status = S <= lines.slope * n ? 'below limit' : 'above limit';
+    message = `Planned maximum of ${maxN} reached: decided by the middle line (weaker evidence than a line crossing).`;
+  }
+  return { status, interval: nominal(), reportedLevel: setup.level, message, ruleLabel: label };
+}

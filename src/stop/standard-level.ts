@@ -1,0 +1,48 @@
+/**
+ * The standard rule's internal confidence level — how much stricter than the claimed level the
+ * interval must be before "enough" is said, per data kind.
+ *
+ * For a field user: if you look at the interval after every entry and stop the first time it is narrow
+ * enough, you tend to stop on a lucky run of similar values, and the "95 %" interval then holds the true
+ * value less often than 95 % of the time. Sure Enough therefore checks (and shows) a slightly wider
+ * interval than the one you asked for; how much wider was measured by simulation so that the claim holds
+ * within one percentage point in every benchmark situation with at least 25 planned observations.
+ *
+ * For an analyst: the internal tail probability is α_int = ρ_kind · α (α = 1 − level; for a two-sided
+ * interval each tail gets α_int/2), with ρ_kind calibrated by the coverage benchmark
+ * (test/bench/coverage.md: METHODS §7 grid, R = 20,000 per cell, common random numbers) as the largest
+ * ρ (smallest cost) for which every cell with n* ≥ 25 covers ≥ nominal − 1 pp. The correction is of the
+ * "naive rule at an inflated internal level" family of METHODS §4.8; its need follows from the
+ * second-order theory of Woodroofe (1977, Ann. Stat. 5:984–995: coverage deficit ≈ 0.41/n* at 95 % for
+ * normal data) and is larger for skewed data. Counts additionally use the Chow–Robbins (1965, Ann. Math.
+ * Stat. 36:457–462) variance floor s² + c/n with c = 1 count unit (see standard.ts).
+ *
+ * Preconditions: 0 < level < 1. Returns the internal level in (level, 1).
+ * Validity: calibrated at nominal levels 0.80–0.99 by the ratio form; tested in the benchmark at 0.95.
+ *
+ * @example standardLevel({ kind: 'measurement', level: 0.95 }) // 0.96 when ρ = 0.8
+ */
+import type { AnalysisSetup } from '../model/types.ts';
+
+/** Calibration groups: the interval family actually used decides how much the rule must be corrected. */
+export type StandardGroup = 'measurement' | 'measurement-log' | 'count' | 'pass-fail';
+
+/** ρ per group: internal α = ρ · nominal α. Values from test/bench/coverage.md (see there for the runs). */
+export const STANDARD_ALPHA_RATIO: Readonly<Record<StandardGroup, number>> = {
+  measurement: 0.8,
+  'measurement-log': 0.5,
+  count: 0.6,
+  'pass-fail': 0.9,
+};
+
+export function standardGroup(setup: Pick<AnalysisSetup, 'kind' | 'method'>): StandardGroup {
+  if (setup.kind === 'pass-fail') return 'pass-fail';
+  if (setup.kind === 'count') return 'count';
+  return setup.method === 'cox' || setup.method === 'land' ? 'measurement-log' : 'measurement';
+}
+
+export function standardLevel(setup: Pick<AnalysisSetup, 'kind' | 'method' | 'level'>): number {
+  const { level } = setup;
+  if (!(level > 0 && level < 1)) throw new RangeError('standardLevel requires 0 < level < 1');
+  return 1 - STANDARD_ALPHA_RATIO[standardGroup(setup)] * (1 - level);
+}

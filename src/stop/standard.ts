@@ -1,0 +1,102 @@
+/**
+ * The standard stopping rule (default) — "is the interval narrow enough yet?", asked after every entry
+ * in a way that keeps its promise.
+ *
+ * For a field user: the shared checks come first (no verdict before the minimum number of observations,
+ * none while all values are equal or all counts are zero). Then the app computes the interval that suits
+ * your data — Wilson's interval for pass/fail items, the log-scale (Cox) interval for skewed positive
+ * measurements when the study uses it, the count interval with a one-count safety margin for counts — at a
+ * slightly higher confidence than you asked for, and says "enough" when that interval meets your target.
+ * The interval it shows is that wider one, so what you see is what was checked. The extra width is the
+ * price of looking after every entry; it was measured by simulation (test/bench/coverage.md). For counts
+ * with known Taylor or Iwao coefficients and a precision target, Green's or Kuno's stop line decides.
+ *
+ * For an analyst:
+ *   level_int = 1 − ρ_kind·(1 − level)                         (standard-level.ts, ρ calibrated)
+ *   stop at the first n ≥ m (guards passed) with I_n(level_int) meeting the target, where for counts
+ *   the interval is widened about its estimate by √(1 + c/(n·s²)), c = 1 count unit — the Chow & Robbins
+ *   (1965, Ann. Math. Stat. 36:457–462) floor s² + c/n, which prevents a stop on near-constant low counts.
+ *   Counts with target `precision` and planning coefficients: Green (1970) line when Taylor's a, b are
+ *   given, else Kuno (1969) line when Iwao's α, β are given (green-stop-line.ts, kuno-stop-line.ts).
+ *
+ * Preconditions: the shared guards have passed (assess applies them).
+ * Returns: the verdict and the interval at level_int (reportedLevel).
+ * Validity: coverage ≥ nominal − 1 pp in the benchmark cells with n* ≥ 25 except the regimes listed by
+ * ruleWarnings (rule-warnings.ts) and in test/bench/coverage.md.
+ *
+ * @example standardRule(ctx, setup).reportedLevel // 0.96 for a 95 % measurement study
+ */
+import type { AnalysisSetup, VerdictStatus } from '../model/types.ts';
+import { greenStopLine } from './green-stop-line.ts';
+import { kunoStopLine } from './kuno-stop-line.ts';
+import type { Interval, RuleContext, RuleDecision } from './rule-context.ts';
+import { standardLevel } from './standard-level.ts';
+import { statusOf } from './status-of.ts';
+
+/** Chow–Robbins count-unit floor c (squared count units per plot). */
+export const COUNT_UNIT_FLOOR = 1;
+
+function withCountFloor(interval: Interval, n: number, sd: number): Interval {
+  const v = sd * sd;
+  const f = v > 0 ? Math.sqrt(1 + COUNT_UNIT_FLOOR / (n * v)) : Number.POSITIVE_INFINITY;
+  const e = interval.estimate;
+  const lower = Number.isFinite(interval.lower) ? Math.max(0, e - (e - interval.lower) * f) : interval.lower;
+  const upper = Number.isFinite(interval.upper) ? e + (interval.upper - e) * f : interval.upper;
+  const out: Interval = { estimate: e, lower, upper };
+  if (interval.se !== undefined) out.se = interval.se * f;
+  return out;
+}
+
+export function standardRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
+  const level = standardLevel(setup);
+  let interval = ctx.intervalAt(level, setup.sided);
+  if (ctx.kind === 'count') interval = withCountFloor(interval, ctx.n, ctx.stats.sd);
+  const label = `standard (checked and shown at ${(level * 100).toFixed(1)} % to allow for looking after every entry)`;
+  const p = setup.planning;
+  const target = setup.target;
+  if (ctx.kind === 'count' && target?.kind === 'precision' && p) {
+    const D = target.value;
+    const T = ctx.stats.total;
+    let status: VerdictStatus | null = null;
+    let message = '';
+    if (p.taylorA !== undefined && p.taylorB !== undefined) {
+      const line = greenStopLine({ a: p.taylorA, b: p.taylorB, D }, ctx.n);
+      const crossed = line.stopWhen === 'at-least' ? T >= line.total : T <= line.total;
+      status = crossed ? 'enough' : 'keep going';
+      message = crossed
+        ? `The running total ${T} has crossed Green's stop line (${line.total.toFixed(1)}).`
+        : `Green's stop line is at a total of ${line.total.toFixed(1)}; the running total is ${T}.`;
+    } else if (p.iwaoAlpha !== undefined && p.iwaoBeta !== undefined) {
+      const line = kunoStopLine({ alpha: p.iwaoAlpha, beta: p.iwaoBeta, D }, ctx.n);
+      const crossed = line !== null && T >= line;
+      status = crossed ? 'enough' : 'keep going';
+      message =
+        line === null
+          ? "Kuno's stop line is not defined yet at this number of plots; keep counting."
+          : crossed
+            ? `The running total ${T} has reached Kuno's stop line (${line.toFixed(1)}).`
+            : `Kuno's stop line is at a total of ${line.toFixed(1)}; the running total is ${T}.`;
+    }
+    if (status !== null)
+      return {
+        status,
+        interval,
+        reportedLevel: level,
+        message,
+        ruleLabel: `${label}, fixed-precision stop line`,
+      };
+  }
+  const status = statusOf(ctx.check(interval));
+  return {
+    status,
+    interval,
+    reportedLevel: level,
+    message:
+      status === 'keep going'
+        ? 'The interval does not meet the target yet.'
+        : status === 'enough'
+          ? 'The interval meets the target.'
+          : 'The bound is on one side of the limit (descriptive: use the limit decision for a tested answer).',
+    ruleLabel: label,
+  };
+}
