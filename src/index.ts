@@ -1,0 +1,22 @@
+/**
+ * The public face of the pure core — what web/ (and other edges) import. Others may add export lines.
+ */
+
+export { type AssessOptions, assess, assessSummary, checkTarget, DEFAULT_MIN, halfWidth } from './assess.ts';
+export type * from './model/types.ts';
+export { fixedPointSampleSize } from './plan/fixed-point-sample-size.ts';
+export { kupperHafnerSampleSize } from './plan/kupper-hafner-assurance.ts';
+export { agrestiCoullInterval } from './stats/agresti-coull-interval.ts';
+export { chebyshevBound } from './stats/chebyshev-bound.ts';
+export { clopperPearsonInterval } from './stats/clopper-pearson-interval.ts';
+export { dispersionIndexTest } from './stats/dispersion-index-test.ts';
+export { garwoodInterval } from './stats/garwood-poisson-interval.ts';
+export { hypergeometricBounds } from './stats/hypergeometric-bounds.ts';
+export { jeffreysInterval } from './stats/jeffreys-interval.ts';
+export { landH, landInterval } from './stats/land-interval.ts';
+export { modifiedCoxInterval } from './stats/modified-cox-interval.ts';
+export { quasiPoissonInterval } from './stats/quasi-poisson-interval.ts';
+export { RunningSummary } from './stats/running-summary.ts';
+export { studentTInterval } from './stats/student-t-interval.ts';
+export { wilsonCcInterval } from './stats/wilson-cc-interval.ts';
+export { wilsonInterval } from './stats/wilson-interval.ts';

@@ -1,0 +1,42 @@
+/**
+ * Sample size for a relative half-width on the log scale — how many positive, skewed observations give a
+ * modified Cox upper limit within a factor (1 + r) of the estimated arithmetic mean.
+ *
+ * Source: shared METHODS notes §3.5, from the Cox standard error (Land 1972; Zhou & Gao 1997, Stat Med
+ * 16:783–790) with Olsson's (2005) t quantile: smallest n with exp(t₍p, n−1₎·√(s_y²/n + s_y⁴/(2(n−1)))) − 1 ≤ r.
+ * Preconditions: s_y ≥ 0 (SD of ln x), r > 0, 0 < p < 1.
+ * Returns: n as a real number ≥ 2 (the continuous root; round up).
+ * Validity: lognormal-like data; the t quantile at non-integer df is interpolated in 1/df.
+ * @example logScaleRelativeSampleSize(1, 0.25, 0.975) // ≈ 118.5
+ */
+import { tQuantileAtRealDf } from './fixed-point-sample-size.ts';
+
+export function logScaleRelativeSampleSize(sy: number, r: number, p: number): number {
+  if (!(sy >= 0) || !Number.isFinite(sy))
+    throw new RangeError('logScaleRelativeSampleSize requires s_y >= 0');
+  if (!(r > 0)) throw new RangeError('logScaleRelativeSampleSize requires r > 0');
+  if (!(p > 0 && p < 1)) throw new RangeError('logScaleRelativeSampleSize requires 0 < p < 1');
+  const target = Math.log1p(r);
+  const s2 = sy * sy;
+  const excess = (n: number): number =>
+    tQuantileAtRealDf(p, n - 1) * Math.sqrt(s2 / n + (s2 * s2) / (2 * (n - 1))) - target;
+  if (excess(2) <= 0) return 2;
+  let lo = 2;
+  let hi = 4;
+  while (excess(hi) > 0) {
+    lo = hi;
+    hi *= 2;
+    if (hi > 1e12) return Number.POSITIVE_INFINITY;
+  }
+  while (hi - lo > 1) {
+    const mid = Math.floor((lo + hi) / 2);
+    if (excess(mid) > 0) lo = mid;
+    else hi = mid;
+  }
+  for (let i = 0; i < 40; i++) {
+    const mid = (lo + hi) / 2;
+    if (excess(mid) > 0) lo = mid;
+    else hi = mid;
+  }
+  return hi;
+}

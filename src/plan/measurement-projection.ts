@@ -1,0 +1,43 @@
+/**
+ * "How many more" for measurements — the likely total n for an absolute half-width d, with its 10th–90th
+ * percentile range and the 80 %-assurance figure.
+ *
+ * Source: shared METHODS notes §3.1, §3.6, §3.7: point n = fixed point of n = (t₍n−1₎·σ̂/d)² with σ̂ = s
+ * (Cochran 1977 §4.4); range from the chi-square confidence distribution of σ (σ_q = s·√((n−1)/χ²₍1−q, n−1₎),
+ * q = 0.1, 0.9); assured n from Kupper & Hafner (1989, Am Stat 43:101–105) with γ = 0.8.
+ * Preconditions: n ≥ 2, s > 0, d > 0, 0 < p < 1; `multiplier` (optional) replaces the t quantile by a fixed
+ * factor (SE targets: 1; Chebyshev: √(1/α − 1)).
+ * Returns: totals (likely, low, high, assured) as real numbers (likely/low/high) and an integer (assured).
+ * Validity: normal-ish data; with a finite population every figure is ≤ N.
+ * @example projectMeasurement({ n: 8, s: 2, d: 1, p: 0.975 }) // likely 17.8, low 11.4, high 40.4, assured 22
+ */
+import { sigmaQuantile } from './chi-square-sigma-limits.ts';
+import { fixedPointSampleSize } from './fixed-point-sample-size.ts';
+import { kupperHafnerSampleSize } from './kupper-hafner-assurance.ts';
+
+export function projectMeasurement(args: {
+  n: number;
+  s: number;
+  d: number;
+  p: number;
+  population?: number;
+  multiplier?: number;
+}): { likely: number; low: number; high: number; assured: number } {
+  const { n, s, d, p, population, multiplier } = args;
+  if (!(n >= 2)) throw new RangeError('projectMeasurement requires n >= 2');
+  if (!(s > 0)) throw new RangeError('projectMeasurement requires s > 0');
+  if (!(d > 0)) throw new RangeError('projectMeasurement requires d > 0');
+  const size = (sigma: number): number => {
+    if (multiplier === undefined) return fixedPointSampleSize(sigma, d, p, population);
+    const n0 = ((multiplier * sigma) / d) ** 2;
+    return population === undefined ? n0 : n0 / (1 + n0 / population);
+  };
+  const likely = size(s);
+  const low = size(sigmaQuantile(s, n, 0.1));
+  const high = size(sigmaQuantile(s, n, 0.9));
+  const assured =
+    multiplier === undefined
+      ? kupperHafnerSampleSize(s, d, p, 0.8, population)
+      : kupperHafnerSampleSize(s, d, p, 0.8, population, () => multiplier);
+  return { likely, low, high, assured };
+}

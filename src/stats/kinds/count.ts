@@ -1,0 +1,185 @@
+/**
+ * Counts per plot: exact Poisson (Garwood) when the counts are not overdispersed, otherwise Student t on the
+ * counts (index-of-dispersion test at 5 %, one-sided); quasi-Poisson or either of the others on request.
+ * Densities per unit plot area when a plot area is given. Glue over the method files.
+ */
+import type { AnalysisSetup, CountMethod, Sided, Target } from '../../model/types.ts';
+import { type CountVarianceModel, countSampleSize } from '../../plan/count-sample-size.ts';
+import { fixedPointSampleSize } from '../../plan/fixed-point-sample-size.ts';
+import { kupperHafnerSampleSize } from '../../plan/kupper-hafner-assurance.ts';
+import { dispersionIndexTest } from '../dispersion-index-test.ts';
+import { garwoodInterval } from '../garwood-poisson-interval.ts';
+import { cachedNormalQuantile } from '../quantile-cache.ts';
+import { quasiPoissonInterval } from '../quasi-poisson-interval.ts';
+import type { RunningSummary } from '../running-summary.ts';
+import { studentTInterval } from '../student-t-interval.ts';
+import { type KindModel, type Projection, quantileProbability, sidedWords } from './kind-model.ts';
+
+const LABELS: Record<CountMethod, string> = {
+  t: 'Student t on the counts',
+  'poisson-exact': 'exact Poisson (Garwood)',
+  'quasi-poisson': 'quasi-Poisson (log scale)',
+};
+
+export function countModel(summary: RunningSummary, setup: AnalysisSetup): KindModel {
+  const n = summary.n;
+  const m = summary.mean;
+  const total = Math.round(summary.total);
+  const variance = summary.variance;
+  const population = setup.population;
+  const warnings: string[] = [];
+  const details: KindModel['details'] = { total, meanPerPlot: n >= 1 ? m : null, distinct: summary.distinct };
+  let index: number | null = null;
+  let overdispersed = false;
+  if (n >= 2 && m > 0) {
+    const test = dispersionIndexTest(n, m, variance);
+    index = test.index;
+    overdispersed = test.overdispersed;
+    details.sd = Math.sqrt(variance);
+    details.dispersionIndex = test.index;
+    details.dispersionStatistic = test.statistic;
+    details.dispersionCritical = test.critical;
+    details.overdispersed = test.overdispersed;
+    if (variance > m) details.negBinomialK = (m * m) / (variance - m);
+  }
+  let method: CountMethod;
+  if (setup.method !== undefined) method = setup.method as CountMethod;
+  else {
+    method = overdispersed ? 't' : 'poisson-exact';
+    details.methodChoice = overdispersed
+      ? 'Student t: the counts are more clumped than Poisson (index-of-dispersion test, 5 %)'
+      : 'exact Poisson: the counts are not significantly more clumped than Poisson (index-of-dispersion test, 5 %)';
+  }
+  if (method === 'poisson-exact' && overdispersed)
+    warnings.push(
+      `The counts are clumped (dispersion index ${index?.toFixed(2)}); the exact Poisson interval is too narrow for them.`,
+    );
+  if (method !== 't' && population !== undefined)
+    warnings.push(
+      'Only the Student t method applies the finite population correction; this interval ignores it.',
+    );
+  const phi = Math.max(1, index ?? 1);
+
+  const intervalAt =
+    n < 1 || (method === 't' && n < 2)
+      ? null
+      : (level: number, sided: Sided) => {
+          if (method === 'poisson-exact') {
+            const r = garwoodInterval(total, n, level, sided);
+            return { ...r, se: Math.sqrt(m / n) };
+          }
+          if (method === 'quasi-poisson') return quasiPoissonInterval(total, n, phi, level, sided);
+          const r = studentTInterval({ n, mean: m, sd: Math.sqrt(variance) }, level, sided, population);
+          return { estimate: r.estimate, lower: Math.max(0, r.lower), upper: r.upper, se: r.se };
+        };
+
+  if (setup.plotArea !== undefined && n >= 1) {
+    details.plotArea = setup.plotArea;
+    details.density = m / setup.plotArea;
+    if (intervalAt) {
+      const iv = intervalAt(setup.level, setup.sided);
+      details.densityLower = Number.isFinite(iv.lower) ? iv.lower / setup.plotArea : null;
+      details.densityUpper = Number.isFinite(iv.upper) ? iv.upper / setup.plotArea : null;
+    }
+  }
+
+  const planning = setup.planning;
+  let varianceModel: CountVarianceModel;
+  if (planning?.negBinomialK !== undefined)
+    varianceModel = { kind: 'negative-binomial', k: planning.negBinomialK };
+  else if (planning?.taylorA !== undefined && planning.taylorB !== undefined)
+    varianceModel = { kind: 'taylor', a: planning.taylorA, b: planning.taylorB };
+  else if (method === 'poisson-exact') varianceModel = { kind: 'poisson' };
+  else
+    varianceModel = { kind: 'quasi-poisson', dispersion: method === 't' ? Math.max(index ?? 1, 1e-9) : phi };
+
+  const project = (target: Target, level: number, sided: Sided): Projection | null => {
+    if (n < 2 || !(m > 0)) return null;
+    const p = target.kind === 'limit' ? level : quantileProbability(level, sided);
+    const z = cachedNormalQuantile(p);
+    const withPop = population === undefined ? {} : { population };
+    // 80 % two-sided quasi-Poisson interval for m: the 10th and 90th percentiles
+    const band = quasiPoissonInterval(total, n, phi, 0.8, 'two');
+    const at = (mm: number): number => {
+      if (target.kind === 'limit') {
+        const d = Math.abs(mm - target.value);
+        if (!(d > 0)) return Number.POSITIVE_INFINITY;
+        return countSampleSize({
+          m: mm,
+          variance: varianceModel,
+          target: 'margin',
+          value: d,
+          multiplier: z,
+          ...withPop,
+        });
+      }
+      return countSampleSize({
+        m: mm,
+        variance: varianceModel,
+        target: target.kind,
+        value: target.value,
+        multiplier: z,
+        ...withPop,
+      });
+    };
+    const planningWords =
+      varianceModel.kind === 'negative-binomial'
+        ? `negative binomial, k = ${varianceModel.k}`
+        : varianceModel.kind === 'taylor'
+          ? `Taylor's power law, a = ${varianceModel.a}, b = ${varianceModel.b}`
+          : varianceModel.kind === 'poisson'
+            ? 'Poisson variance'
+            : 'observed variance (φ·m)';
+    if (
+      method === 't' &&
+      varianceModel.kind === 'quasi-poisson' &&
+      target.kind !== 'limit' &&
+      target.kind !== 'precision'
+    ) {
+      // Student t on counts with the observed SD: the measurement projection (t fixed point, χ² range of σ)
+      const s = Math.sqrt(variance);
+      if (!(s > 0)) return null;
+      const d = target.kind === 'margin' ? target.value : target.value * m;
+      const size = (sig: number) => fixedPointSampleSize(sig, d, p, population);
+      const n1 = size(s);
+      const a = at(band.lower);
+      const b = at(band.upper);
+      return {
+        likely: n1,
+        low: Math.min(n1, a, b),
+        high: Math.max(n1, a, b),
+        assured: kupperHafnerSampleSize(s, d, p, 0.8, population),
+        basis: `t fixed point with the observed SD; range from the 80 % quasi-Poisson interval for the mean (${planningWords})`,
+      };
+    }
+    const likely = at(m);
+    const a = at(band.lower);
+    const b = at(band.upper);
+    return {
+      likely,
+      low: Math.min(likely, a, b),
+      high: Math.max(likely, a, b),
+      basis: `count model (${planningWords}); range from the 80 % quasi-Poisson interval for the mean`,
+    };
+  };
+
+  let guard: KindModel['guard'] = null;
+  if (n >= 1 && total === 0)
+    guard = { reason: 'all-zero', message: 'Every count is zero so far; nothing to base a verdict on.' };
+  else if (n >= 1 && summary.distinct === 1)
+    guard = {
+      reason: 'one-distinct-value',
+      message: 'Every count is the same; the spread cannot be judged yet.',
+    };
+
+  return {
+    method,
+    label: (level, sided) => `${LABELS[method]}, ${sidedWords(level, sided)}`,
+    estimate: n >= 1 ? m : null,
+    intervalAt,
+    guard,
+    details,
+    warnings,
+    project,
+  };
+}

@@ -1,0 +1,164 @@
+/**
+ * Measurements (a number with a unit): Student t by default, or the modified Cox, Land or Chebyshev
+ * methods on request. Glue over the method files; see each for its source.
+ */
+import type { AnalysisSetup, MeasurementMethod, Sided, Target } from '../../model/types.ts';
+import { sigmaQuantile as sigmaQ } from '../../plan/chi-square-sigma-limits.ts';
+import { logScaleRelativeSampleSize } from '../../plan/log-scale-relative-sample-size.ts';
+import { projectMeasurement } from '../../plan/measurement-projection.ts';
+import { chebyshevBound } from '../chebyshev-bound.ts';
+import { landInterval } from '../land-interval.ts';
+import { modifiedCoxInterval } from '../modified-cox-interval.ts';
+import type { RunningSummary } from '../running-summary.ts';
+import { studentTInterval } from '../student-t-interval.ts';
+import { type KindModel, type Projection, quantileProbability, sidedWords } from './kind-model.ts';
+
+const LABELS: Record<MeasurementMethod, string> = {
+  t: 'Student t',
+  cox: 'modified Cox (Olsson 2005, log scale, t quantile)',
+  land: "Land's exact method (log scale)",
+  chebyshev: 'Chebyshev (mean and SD)',
+};
+
+export function measurementModel(summary: RunningSummary, setup: AnalysisSetup): KindModel {
+  const n = summary.n;
+  const mean = summary.mean;
+  const sd = summary.sd;
+  const population = setup.population;
+  const requested = (setup.method ?? 't') as MeasurementMethod;
+  const warnings: string[] = [];
+  let method: MeasurementMethod = requested;
+  const logScale = requested === 'cox' || requested === 'land';
+  if (logScale && summary.positive < n) {
+    warnings.push(
+      `The ${LABELS[requested]} needs every value above zero; ${n - summary.positive} value(s) are zero or negative, so Student t is used instead.`,
+    );
+    method = 't';
+  }
+  if ((method === 'cox' || method === 'land') && population !== undefined)
+    warnings.push('The log-scale methods ignore the population size (no finite population correction).');
+  const logStats = { n, logMean: summary.logMean, logSd: summary.logSd };
+  const details: KindModel['details'] = {
+    sd: n >= 2 ? sd : null,
+    se: n >= 2 ? sd / Math.sqrt(n) : null,
+    cv: n >= 2 && mean !== 0 ? sd / Math.abs(mean) : null,
+    distinct: summary.distinct,
+  };
+  if (summary.positive === n && n >= 2) {
+    details.logMean = summary.logMean;
+    details.logSd = summary.logSd;
+  }
+  if (population !== undefined) details.population = population;
+  if (n >= 2 && mean > 0 && sd / mean > 1 && method === 't')
+    warnings.push(
+      'The data are strongly skewed (CV above 1): the Student t interval may be too narrow; consider the modified Cox or Land method for positive data.',
+    );
+
+  let estimate: number | null = n >= 1 ? mean : null;
+  if ((method === 'cox' || method === 'land') && n >= 2)
+    estimate = Math.exp(summary.logMean + summary.logSd ** 2 / 2);
+
+  const intervalAt =
+    n < 2
+      ? null
+      : (level: number, sided: Sided) => {
+          switch (method) {
+            case 't': {
+              const r = studentTInterval({ n, mean, sd }, level, sided, population);
+              return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: r.se };
+            }
+            case 'chebyshev': {
+              const r = chebyshevBound({ n, mean, sd }, level, sided, population);
+              return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: r.se };
+            }
+            case 'cox': {
+              const r = modifiedCoxInterval(logStats, level, sided);
+              // SE of the estimate on the data scale by the delta method: estimate × log-scale SE
+              return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: r.estimate * r.logSe };
+            }
+            case 'land': {
+              const r = landInterval(logStats, level, sided);
+              const cox = modifiedCoxInterval(logStats, level, sided);
+              return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: cox.estimate * cox.logSe };
+            }
+          }
+        };
+
+  const project = (target: Target, level: number, sided: Sided): Projection | null => {
+    if (n < 2 || !(sd > 0)) return null;
+    const p = target.kind === 'limit' ? level : quantileProbability(level, sided);
+    const alpha = 1 - level;
+    const multiplier =
+      method === 'chebyshev'
+        ? sided === 'two' && target.kind !== 'limit'
+          ? 1 / Math.sqrt(alpha)
+          : Math.sqrt(1 / alpha - 1)
+        : undefined;
+    const withPop = population === undefined ? {} : { population };
+    const withMult = multiplier === undefined ? {} : { multiplier };
+    switch (target.kind) {
+      case 'margin': {
+        const r = projectMeasurement({ n, s: sd, d: target.value, p, ...withPop, ...withMult });
+        return { ...r, basis: 'fixed point n = (t·s/D)², range from the chi-square distribution of σ' };
+      }
+      case 'relative': {
+        if (!(estimate !== null && estimate > 0)) return null;
+        if (method === 'cox' || method === 'land') {
+          const s = summary.logSd;
+          if (!(s > 0)) return null;
+          const at = (sy: number) => logScaleRelativeSampleSize(sy, target.value, p);
+          return {
+            likely: at(s),
+            low: at(sigmaQ(s, n, 0.1)),
+            high: at(sigmaQ(s, n, 0.9)),
+            basis:
+              'log-scale (Cox) half-width exp(t·SE) − 1 ≤ R, range from the chi-square distribution of σ of ln x',
+          };
+        }
+        const r = projectMeasurement({ n, s: sd, d: target.value * estimate, p, ...withPop, ...withMult });
+        return {
+          ...r,
+          basis: 'fixed point n = (t·s/(R·mean))², range from the chi-square distribution of σ',
+        };
+      }
+      case 'precision': {
+        if (!(estimate !== null && estimate > 0)) return null;
+        const r = projectMeasurement({ n, s: sd, d: target.value * estimate, p, ...withPop, multiplier: 1 });
+        return { ...r, basis: 'n = (s/(D·mean))², range from the chi-square distribution of σ' };
+      }
+      case 'limit': {
+        if (estimate === null) return null;
+        const d = Math.abs(estimate - target.value);
+        if (!(d > 0)) return null;
+        const r = projectMeasurement({ n, s: sd, d, p, ...withPop, ...withMult });
+        return {
+          ...r,
+          basis: 'n at which the one-sided bound would clear the limit if the mean and SD stay as they are',
+        };
+      }
+    }
+  };
+
+  let guard: KindModel['guard'] = null;
+  if (n >= 1 && summary.distinct === 1)
+    guard = {
+      reason: 'one-distinct-value',
+      message: 'Every value is the same; the spread cannot be judged yet.',
+    };
+  else if (n >= 2 && !(sd > 1e-12 * Math.max(1, Math.abs(mean))))
+    guard = {
+      reason: 'zero-spread',
+      message: 'The values show no spread; the interval cannot be trusted yet.',
+    };
+
+  return {
+    method,
+    label: (level, sided) => `${LABELS[method]}, ${sidedWords(level, sided)}`,
+    estimate,
+    intervalAt,
+    guard,
+    details,
+    warnings,
+    project,
+  };
+}

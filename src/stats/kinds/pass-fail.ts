@@ -1,0 +1,131 @@
+/**
+ * Pass/fail items (1 = the counted outcome): Wilson by default; Wilson with continuity correction,
+ * Jeffreys, Clopper–Pearson or Agresti–Coull on request; with none counted, the exact one-sided upper
+ * bound 1 − α^{1/n} for upper bounds; with a finite lot, exact hypergeometric bounds. Glue.
+ */
+import type { AnalysisSetup, PassFailMethod, Sided, Target } from '../../model/types.ts';
+import { proportionSampleSize, zeroAcceptanceSampleSize } from '../../plan/proportion-sample-size.ts';
+import { agrestiCoullInterval } from '../agresti-coull-interval.ts';
+import { clopperPearsonInterval } from '../clopper-pearson-interval.ts';
+import { hypergeometricBounds } from '../hypergeometric-bounds.ts';
+import { jeffreysInterval } from '../jeffreys-interval.ts';
+import { cachedNormalQuantile } from '../quantile-cache.ts';
+import type { RunningSummary } from '../running-summary.ts';
+import { wilsonCcInterval } from '../wilson-cc-interval.ts';
+import { wilsonInterval } from '../wilson-interval.ts';
+import { type KindModel, type Projection, quantileProbability, sidedWords } from './kind-model.ts';
+
+const LABELS: Record<PassFailMethod | 'hypergeometric', string> = {
+  wilson: 'Wilson score',
+  'wilson-cc': 'Wilson score with continuity correction',
+  jeffreys: 'Jeffreys (equal-tailed)',
+  'clopper-pearson': 'Clopper–Pearson (exact, conservative)',
+  'agresti-coull': 'Agresti–Coull',
+  hypergeometric: 'exact hypergeometric bounds for a finite lot',
+};
+
+const FNS = {
+  wilson: wilsonInterval,
+  'wilson-cc': wilsonCcInterval,
+  jeffreys: jeffreysInterval,
+  'clopper-pearson': clopperPearsonInterval,
+  'agresti-coull': agrestiCoullInterval,
+} as const;
+
+export function passFailModel(summary: RunningSummary, setup: AnalysisSetup): KindModel {
+  const n = summary.n;
+  const x = Math.round(summary.total);
+  const lot = setup.population;
+  const requested = (setup.method ?? 'wilson') as PassFailMethod;
+  const warnings: string[] = [];
+  const details: KindModel['details'] = { counted: x, items: n };
+  let method: PassFailMethod | 'hypergeometric' = requested;
+  if (lot !== undefined) {
+    method = 'hypergeometric';
+    details.lot = lot;
+    if (setup.method !== undefined && setup.method !== 'clopper-pearson')
+      warnings.push(
+        `With a lot size the exact hypergeometric bounds are used instead of ${LABELS[requested]}.`,
+      );
+  }
+  const alpha = 1 - setup.level;
+  if (n >= 1 && x === 0) {
+    const exact = 1 - alpha ** (1 / n);
+    details.zeroUpperBound = exact;
+    details.ruleOfThree = `No counted outcome in ${n} items: the rate is likely below ${(exact * 100).toPrecision(3)} % (${Math.round(setup.level * 100)} % one-sided exact bound 1 − α^(1/n); the "rule of three" 3/n = ${((3 / n) * 100).toPrecision(3)} % approximates it at 95 %).`;
+  }
+  // one-sided upper bound with nothing counted: the exact bound 1 − α^{1/n} (= Clopper–Pearson one-sided)
+  const zeroExact = (sided: Sided) => lot === undefined && x === 0 && sided === 'upper';
+  let labelMethod = method;
+  const intervalAt =
+    n < 1
+      ? null
+      : (level: number, sided: Sided) => {
+          let r: { estimate: number; lower: number; upper: number };
+          if (method === 'hypergeometric') r = hypergeometricBounds(x, n, lot as number, level, sided);
+          else if (zeroExact(sided)) r = clopperPearsonInterval(0, n, level, 'upper');
+          else r = FNS[method](x, n, level, sided);
+          const fpc = lot === undefined ? 1 : Math.sqrt(Math.max(0, (lot - n) / Math.max(1, lot - 1)));
+          const ac = agrestiCoullInterval(x, n, level, 'two');
+          return { ...r, se: ac.se * fpc };
+        };
+  if (zeroExact(setup.sided) || (setup.target?.kind === 'limit' && x === 0 && lot === undefined))
+    labelMethod = 'clopper-pearson';
+
+  const project = (target: Target, level: number, sided: Sided): Projection | null => {
+    if (n < 1) return null;
+    const p = quantileProbability(level, target.kind === 'limit' ? 'upper' : sided);
+    const z = cachedNormalQuantile(p);
+    const withPop = lot === undefined ? {} : { population: lot };
+    const centre = agrestiCoullInterval(x, n, level, 'two').centre;
+    const band = wilsonInterval(x, n, 0.8, 'two'); // 10th–90th percentile of p
+    const clampP = (q: number) => Math.min(1 - 1e-9, Math.max(1e-9, q));
+    const at = (q: number): number => {
+      const pp = clampP(q);
+      if (target.kind === 'limit') {
+        const d = Math.abs(pp - target.value);
+        if (!(d > 0)) return Number.POSITIVE_INFINITY;
+        return proportionSampleSize({ p: pp, target: 'margin', value: d, z, ...withPop });
+      }
+      return proportionSampleSize({ p: pp, target: target.kind, value: target.value, z, ...withPop });
+    };
+    if (target.kind === 'limit' && x === 0 && target.value > 0 && target.value < 1) {
+      const n0 = zeroAcceptanceSampleSize(target.value, 1 - level);
+      const nz = lot === undefined ? n0 : n0 / (1 + (n0 - 1) / lot);
+      return {
+        likely: nz,
+        low: nz,
+        high: Math.max(nz, at(band.upper)),
+        basis:
+          'zero-acceptance: n = ln α / ln(1 − L) if no counted outcome turns up; high end from the 90th percentile of p',
+      };
+    }
+    const likely = at(centre);
+    const a = at(band.lower);
+    const b = at(band.upper);
+    let low = Math.min(likely, a, b);
+    let high = Math.max(likely, a, b);
+    if (target.kind === 'margin' && band.lower < 0.5 && band.upper > 0.5) high = Math.max(high, at(0.5));
+    if (!Number.isFinite(low)) low = likely;
+    return {
+      likely,
+      low,
+      high,
+      basis: 'z²·p̃(1−p̃)/d² with p̃ the Agresti–Coull centre; range from the 80 % Wilson limits for p',
+    };
+  };
+
+  return {
+    method: labelMethod,
+    label: (level, sided) =>
+      zeroExact(sided)
+        ? `exact one-sided bound with none counted (1 − α^(1/n)), ${sidedWords(level, sided)}`
+        : `${LABELS[method]}, ${sidedWords(level, sided)}`,
+    estimate: n >= 1 ? x / n : null,
+    intervalAt,
+    guard: null,
+    details,
+    warnings,
+    project,
+  };
+}
