@@ -218,3 +218,18 @@ describe('parseBundle', () => {
     expect(p[50]).toMatch(/and \d+ more problems/);
   });
 });
+
+describe('checksum reproduced outside the app (the Python recipe in src/bundle/SCHEMA.md)', () => {
+  it('Python json + hashlib give the same SHA-256', () => {
+    const b = good();
+    const py = execFileSync(
+      'python3',
+      [
+        '-c',
+        "import sys, json, hashlib\nb = json.loads(sys.stdin.buffer.read().decode('utf-8'))\ntext = json.dumps({'study': b['study'], 'events': b['events']}, sort_keys=True, separators=(',', ':'), ensure_ascii=False)\nprint(hashlib.sha256(text.encode('utf-8')).hexdigest(), end='')",
+      ],
+      { input: serializeBundle(b), encoding: 'utf8' },
+    );
+    expect(py).toBe(b.checksum.value);
+  });
+});
