@@ -1,0 +1,131 @@
+/**
+ * The report page: typed text cannot inject markup (checked by Python's html.parser, an HTML tokenizer
+ * outside the project: no script element, no event-handler attribute, the hostile text comes back as
+ * text), the page has no script and no external resource, and its figures are those of `assess` on the
+ * counted entries.
+ */
+import { execFileSync } from 'node:child_process';
+import { describe, expect, it } from 'vitest';
+import { assess } from '../../../src/assess.ts';
+import { makeBundle } from '../../../src/bundle/bundle.ts';
+import { pointsOf } from '../../../src/bundle/events.ts';
+import { assessFlags, escapeHtml, fmt, reportHtml, runningInterval } from '../../../src/export/report.ts';
+import { entries, study, uuid, voidOf } from '../bundle/make.ts';
+
+const HOSTILE = {
+  name: '<script>alert("name")</script>',
+  notes: '"><img src=x onerror=alert(1)>',
+  device: "phone-A' onmouseover='alert(2)",
+  label: '</td><iframe src="javascript:alert(3)">',
+  reason: '<svg onload=alert(4)>',
+  unit: 'mg/kg<style>body{display:none}</style>',
+};
+
+function hostileBundle() {
+  const st = study(
+    {
+      kind: 'measurement',
+      unit: HOSTILE.unit,
+      plotArea: undefined,
+      taxon: undefined,
+      target: { kind: 'relative', value: 0.25 },
+    },
+    { name: HOSTILE.name, notes: HOSTILE.notes },
+  );
+  const values = [12.1, 9.8, 15.2, 11.0, 13.4, 10.9, 12.7, 14.1, 9.5, 12.2, 11.8, 13.0];
+  const ev = entries(st, values, HOSTILE.device, 2, 0, () => ({ label: HOSTILE.label }));
+  ev.push(...entries(st, [10.4, 12.9], 'phone-B', 4, 30, () => ({ label: HOSTILE.label })));
+  for (const [i, e] of ev.entries()) e.seq = i + 1;
+  ev.push(voidOf(st, ev[3]!, ev.length + 1, uuid(3, 1), HOSTILE.reason));
+  return makeBundle(st, ev);
+}
+
+/** Python html.parser: start tags with their attributes, and all text. */
+function pyParse(html: string): { tags: [string, [string, string | null][]][]; text: string } {
+  const out = execFileSync(
+    'python3',
+    [
+      '-c',
+      `import sys, json
+from html.parser import HTMLParser
+class P(HTMLParser):
+    def __init__(self):
+        super().__init__(convert_charrefs=True); self.tags=[]; self.text=[]
+    def handle_starttag(self, tag, attrs): self.tags.append([tag, attrs])
+    def handle_startendtag(self, tag, attrs): self.tags.append([tag, attrs])
+    def handle_data(self, data): self.text.append(data)
+p=P(); p.feed(sys.stdin.buffer.read().decode('utf-8')); p.close()
+print(json.dumps({'tags': p.tags, 'text': ''.join(p.text)}))`,
+    ],
+    { input: Buffer.from(html, 'utf8'), encoding: 'utf8', maxBuffer: 1 << 24 },
+  );
+  return JSON.parse(out);
+}
+
+describe('report HTML', () => {
+  const b = hostileBundle();
+  const html = reportHtml(b, { coverage: null });
+  const parsed = pyParse(html);
+
+  it('typed text cannot inject elements or attributes', () => {
+    const names = new Set(parsed.tags.map(([t]) => t));
+    for (const bad of ['script', 'img', 'iframe', 'object', 'embed', 'link', 'base', 'form'])
+      expect(names.has(bad), bad).toBe(false);
+    // the only style element is the page's own
+    expect(parsed.tags.filter(([t]) => t === 'style')).toHaveLength(1);
+    for (const [, attrs] of parsed.tags)
+      for (const [k, v] of attrs) {
+        expect(k.startsWith('on'), `attribute ${k}`).toBe(false);
+        expect(String(v ?? '')).not.toMatch(/javascript:/i);
+      }
+  });
+  it('the hostile text is shown as text', () => {
+    for (const v of Object.values(HOSTILE)) expect(parsed.text).toContain(v);
+  });
+  it('the injection test itself can fail: unescaped text would be caught', () => {
+    const bad = pyParse(`<p>${HOSTILE.notes}</p>`);
+    expect(bad.tags.some(([t]) => t === 'img')).toBe(true);
+    expect(escapeHtml(`<a href="x">'&'</a>`)).toBe('&lt;a href=&quot;x&quot;&gt;&#39;&amp;&#39;&lt;/a&gt;');
+  });
+  it('no script, no external resources; print CSS present', () => {
+    expect(html).not.toMatch(/<script/i);
+    for (const [, attrs] of parsed.tags)
+      for (const [k] of attrs) expect(['src', 'href', 'srcset'].includes(k), k).toBe(false);
+    expect(html).toContain('@media print');
+    expect(html).toMatch(/<svg[^>]*role="img"/);
+  });
+  it('figures are those of assess on the counted entries; coverage not yet measured', () => {
+    const a = assess(pointsOf(b.events), b.study.setup);
+    expect(a.n).toBe(13);
+    expect(html).toContain(`<code>estimate = ${a.estimate}</code>`);
+    expect(html).toContain(`<code>lower = ${a.lower}</code>`);
+    expect(html).toContain(`<code>upper = ${a.upper}</code>`);
+    expect(parsed.text).toContain(a.verdict.status);
+    expect(parsed.text).toContain('Measured coverage of this rule: not yet measured.');
+    expect(parsed.text).toContain('14 entries, of which 13 counted and 1 voided (1 void record)');
+    expect(parsed.text).toContain(b.checksum.value);
+    expect(parsed.text).toContain('The tool gives statistical guidance only.');
+  });
+  it('coverage figure when given', () => {
+    const withCov = reportHtml(b, { coverage: '0.951 at 95 % (benchmark grid)' });
+    expect(pyParse(withCov).text).toContain(
+      'Measured coverage of this rule: 0.951 at 95 % (benchmark grid).',
+    );
+  });
+  it('running interval ends at the final assessment', () => {
+    const run = runningInterval(b);
+    const a = assess(pointsOf(b.events), b.study.setup);
+    const last = run[run.length - 1]!;
+    expect(last.n).toBe(a.n);
+    expect(last.lower).toBe(a.lower);
+    expect(last.upper).toBe(a.upper);
+  });
+  it('reproduce flags and number display', () => {
+    expect(assessFlags(b.study.setup)).toBe(
+      '--kind measurement --level 0.95 --sided two --target relative:0.25 --rule standard --min 10',
+    );
+    expect(fmt(12.34567)).toBe('12.35');
+    expect(fmt(0.000012346)).toBe('1.235e-5');
+    expect(fmt(null)).toBe('—');
+  });
+});
