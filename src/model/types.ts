@@ -75,6 +75,22 @@ export interface AnalysisSetup {
   max?: number;
   planning?: CountPlanning;
   sprt?: SprtSettings;
+  /** Declared strata (issue 7, src/design): the estimate becomes the stratified mean. */
+  strata?: StratumSetup[];
+  /** `composite`: each entry is one composite / incremental sample; the bound comes from the replicates. */
+  design?: 'composite';
+  /** Non-detects: Kaplan–Meier (default) or, only where a regulation prescribes it, half the reporting limit. */
+  nonDetects?: 'kaplan-meier' | 'half-limit';
+}
+
+/** One stratum of a stratified study: weight = area share or number of units (rescaled to sum to 1). */
+export interface StratumSetup {
+  name: string;
+  weight: number;
+  /** Effort of one entry in this stratum (any unit, e.g. minutes); default 1. */
+  cost?: number;
+  /** Number of units in the stratum (finite population correction), when known. */
+  population?: number;
 }
 
 /** One observation as the core sees it. */
