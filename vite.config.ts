@@ -14,6 +14,8 @@ export default defineConfig(({ mode }): UserConfig => {
       root: projectRoot,
       publicDir: false,
       logLevel: 'warn',
+      // jstat is CommonJS without named exports for Node's ESM loader: bundle it into the CLI.
+      ssr: { noExternal: ['jstat'] },
       build: {
         ssr: true,
         outDir: resolve(projectRoot, 'dist-cli'),

@@ -28,7 +28,10 @@ import { decide, type Interval, type RuleContext, type TargetCheck } from './sto
 export interface AssessOptions {
   /** The assessment after the previous entry, for smoothing "how many more". */
   previous?: Assessment | null;
-  /** Skip "how many more" (e.g. in replay, where only the verdict matters). Default true. */
+  /**
+   * Skip "how many more" and let the rule skip its expensive reported interval while the verdict is
+   * `keep going` (replay, benchmark: only the verdict matters). Default true.
+   */
   projection?: boolean;
 }
 
@@ -175,6 +178,7 @@ export function assessSummary(
       },
       values,
     };
+    if (options.projection === false) ctx.verdictOnly = true;
     const decision = decide(ctx, { ...setup, sided });
     interval = decision.interval;
     level = decision.reportedLevel;
@@ -202,7 +206,7 @@ export function assessSummary(
 
   let more: More | null = null;
   if (target !== undefined && verdict.status === 'keep going' && options.projection !== false) {
-    more = projectMore(model, setup, sided, n, details, warnings, options.previous ?? null);
+    more = projectMore(model, setup, level, sided, n, details, warnings, options.previous ?? null);
   }
 
   const reasonCode = verdict.status === 'keep going' ? verdict.reason : null;
@@ -227,6 +231,7 @@ export function assessSummary(
 function projectMore(
   model: KindModel,
   setup: AnalysisSetup,
+  level: number,
   sided: Sided,
   n: number,
   details: Assessment['details'],
@@ -240,7 +245,7 @@ function projectMore(
     const m = setup.min - n;
     return { likely: m, low: m, high: m, atLeast: true };
   }
-  const raw = model.project(target, setup.level, sided);
+  const raw = model.project(target, level, sided);
   if (raw === null) {
     details.moreUnavailable = 'no projection can be made from these values yet';
     return null;

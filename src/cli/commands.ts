@@ -1,4 +1,6 @@
 /** The command registry. Each command module exports `{ summary, run(args) → stdout text }`. */
+import * as assess from './assess.ts';
+import { helpText } from './help.ts';
 import type { ParsedArgs } from './io.ts';
 import { UsageError } from './io.ts';
 
@@ -17,16 +19,21 @@ function pending(name: string): Command {
 }
 
 export const commands: Record<string, Command> = {
-  assess: pending('assess'),
+  assess,
   replay: pending('replay'),
   bundle: pending('bundle'),
   export: pending('export'),
   merge: pending('merge'),
   help: {
-    summary: 'this help',
-    run: () =>
-      `usage: sure-enough <command> [flags] [FILE|-]\n\n${Object.entries(commands)
-        .map(([k, c]) => `  ${k.padEnd(8)} ${c.summary}`)
-        .join('\n')}\n`,
+    summary: 'this help; `help COMMAND` for one command (e.g. `help assess`)',
+    run: (args) => {
+      const topic = args.positional[0];
+      if (topic !== undefined && !(topic in commands))
+        throw new UsageError(`no help topic "${topic}"; try \`sure-enough help\``);
+      return helpText(
+        topic,
+        Object.entries(commands).map(([k, c]) => [k, c.summary] as const),
+      );
+    },
   },
 };

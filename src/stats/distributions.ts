@@ -8,6 +8,7 @@
  * (jstat's t cdf drifts by 3.5e-2 at df 1e6), and computes discrete cdfs from the regularised incomplete
  * gamma/beta functions (jstat's own Poisson/binomial pdf overflow above ~150 / ~1000).
  */
+/// <reference path="./jstat.d.ts" />
 import { jStat } from 'jstat';
 
 const P_MIN = 1e-12;

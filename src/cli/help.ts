@@ -1,0 +1,87 @@
+/**
+ * `sure-enough help [COMMAND]`: the full flag documentation (shared CLI.md plus this build's own flags).
+ */
+import { METHODS_BY_KIND } from './study-flags.ts';
+
+const STUDY_FLAGS_TEXT = `Study flags (assess, bundle, replay):
+  --kind measurement|count|pass-fail   the data kind (required)
+                       measurement: a number with a unit; count: whole number per plot;
+                       pass-fail: one item per line, 1 = the counted outcome (defect, present, fail), 0 = the other
+  --level P            confidence level, 0 < P < 1 (default 0.95)
+  --sided two|upper|lower
+                       two-sided interval, or a one-sided upper / lower bound (default two). With a
+                       limit target and "two", the bound on the estimate's side is checked: the upper
+                       bound when the estimate is below the limit, the lower bound when above.
+  --method NAME        interval method by its published name (default: the data kind's default)
+                       measurement: ${METHODS_BY_KIND.measurement.join(', ')} (default t)
+                         t          Student t (with the finite population correction when --population is given)
+                         cox        modified Cox, log scale (Olsson 2005: t quantile, 2(n−1)) — positive skewed data
+                         land       Land's exact method, log scale (computed by quadrature) — lognormal data vs a limit
+                         chebyshev  Chebyshev bound from the mean and SD — strongly skewed, distribution unclear
+                       count: ${METHODS_BY_KIND.count.join(', ')}
+                         (default: poisson-exact unless the index-of-dispersion test at 5 % finds the
+                         counts clumped, then t; the choice is stated in details.methodChoice)
+                       pass-fail: ${METHODS_BY_KIND['pass-fail'].join(', ')} (default wilson)
+                         With no counted outcome, an upper bound is the exact 1 − α^(1/n).
+                         With --population (a finite lot), exact hypergeometric bounds are used.
+  --target margin:D|relative:R|precision:D|limit:L
+                       what "enough" means (default: none — interval only, verdict "keep going")
+                         margin:D     half-width ≤ D in the data's units (a proportion for pass-fail)
+                         relative:R   half-width ≤ R × estimate (R a fraction: 0.2 = ±20 %)
+                         precision:D  SE / mean ≤ D (the ecologists' D; not a half-width: r = z·D)
+                         limit:L      decide whether the mean / rate is below or above L
+  --rule standard|strict|sprt|naive
+                       stopping rule (default standard; sprt needs a limit target and --sprt-lower/-upper;
+                       naive is for comparison only)
+  --min N              observations before any verdict other than "keep going" (default 10)
+  --population N       finite population or lot size, sampled without replacement (never fewer than n)
+  --plot-area A        plot area for counts; densities are reported per unit of this area
+  --max N              planned maximum number of observations (also the SPRT truncation)
+  --nb-k K             counts: negative-binomial k for planning "how many more" (Var = m + m²/k)
+  --taylor-a A --taylor-b B
+                       counts: Taylor's power law for planning (Var = A·m^B)
+  --iwao-alpha A --iwao-beta B
+                       counts: Iwao's patchiness regression (used by the stop lines of the stopping rules)
+  --sprt-alpha A --sprt-beta B --sprt-lower P0 --sprt-upper P1
+                       Wald SPRT: error rates (default 0.05, 0.10) and the indifference zone around the limit`;
+
+const INPUT_TEXT = `Input: FILE, or standard input when FILE is "-" or absent.
+  One value per line; blank lines and lines starting with # are ignored; a decimal comma is accepted when the
+  line holds one number (4,25 = 4.25). Or a CSV whose header has a "value" column (separator , ; or tab).
+  pass-fail values are 0 or 1; counts are whole numbers ≥ 0. <RL (e.g. <0.5) marks a measurement below a
+  reporting limit (not yet supported by assess: refused with exit code 2).`;
+
+const ASSESS_TEXT = `usage: sure-enough assess [FILE|-] --kind KIND [study flags]
+
+Prints one JSON object:
+  kind, n, estimate, lower, upper, level, sided, method   the interval the stopping rule reports (lower or
+                       upper is null on the open side of a one-sided bound); level is the level the rule
+                       reports (the standard rule checks at a calibrated, slightly higher level)
+  verdict              "keep going" | "enough" | "below limit" | "above limit"
+  reason               the verdict in plain words
+  reasonCode           why "keep going": no-target, below-minimum, zero-spread, one-distinct-value, all-zero,
+                       not-supportable, target-not-met, undecided (null for other verdicts)
+  more                 null without a target or when the verdict is not "keep going"; otherwise further
+                       observations: likely, low and high (10th–90th percentile range), assured (80 %
+                       assurance, Kupper & Hafner 1989, where available) and atLeast: true before the
+                       minimum ("at least M more"). The likely figure is smoothed: once n ≥ min it may change
+                       by at most ±50 % of the previous entry's projected total (details.moreSmoothed,
+                       details.moreRawLikely say when that happened).
+  methodLabel          the method and rule in plain words
+  details              sd, se, halfWidth, relativeHalfWidth, precision (SE/mean), dispersion index, densities…
+  warnings             plain-language warnings for this data (skew, clumping, ignored options…)
+
+Errors (bad value on a line, bad flag, empty input): a message naming the line or flag on stderr, exit code 2,
+nothing on stdout.`;
+
+export function helpText(
+  topic: string | undefined,
+  commands: readonly (readonly [string, string])[],
+): string {
+  if (topic === 'assess') return `${ASSESS_TEXT}\n\n${STUDY_FLAGS_TEXT}\n\n${INPUT_TEXT}\n`;
+  const list = commands.map(([k, s]) => `  ${k.padEnd(8)} ${s}`).join('\n');
+  const head = `usage: sure-enough <command> [flags] [FILE|-]\n       sure-enough help [COMMAND]\n\nCommands:\n${list}`;
+  if (topic !== undefined && !commands.some(([k]) => k === topic))
+    return `no help topic "${topic}"\n\n${head}\n`;
+  return `${head}\n\n${STUDY_FLAGS_TEXT}\n\n${INPUT_TEXT}\n`;
+}
