@@ -3,6 +3,20 @@
  */
 
 export { type AssessOptions, assess, assessSummary, checkTarget, DEFAULT_MIN, halfWidth } from './assess.ts';
+export {
+  assessDesign,
+  clusterRatioMean,
+  compositeUcl,
+  designEffect,
+  kaplanMeierMean,
+  neymanAllocation,
+  type StratumProgress,
+  strataProgress,
+  stratifiedMean,
+  usesDesign,
+  whereNext,
+} from './design/index.ts';
+export { formatStrata, parseStrata } from './design/strata-spec.ts';
 export type * from './model/types.ts';
 export { fixedPointSampleSize } from './plan/fixed-point-sample-size.ts';
 export { kupperHafnerSampleSize } from './plan/kupper-hafner-assurance.ts';
