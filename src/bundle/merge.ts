@@ -12,6 +12,9 @@
  * - Otherwise all events are re-sequenced deterministically: by time (`at` as an instant, to the
  *   millisecond), then by `device` (code-unit order), then by `id`; seq becomes 1, 2, 3… in that order.
  *   A void whose time sorts before the entry it withdraws still withdraws it (voids act by id).
+ * - The study records may differ outside the setup (name, notes, createdAt — e.g. bundles built on two
+ *   desks): the one created first is kept (ties: the smaller canonical JSON), and the differing members
+ *   are listed in the report.
  * - Likely duplicates — counted entries with the same stratum, cluster and label recorded on two or more
  *   devices — are flagged, never dropped.
  * - Each collector's (device's) share of the counted entries is reported.
@@ -35,6 +38,8 @@ export interface MergeReport {
   added: number;
   /** Events of the second bundle already in the first (identical). */
   alreadyPresent: number;
+  /** Members of the study record (outside the setup) that differ between the bundles. */
+  studyDiffers: string[];
   duplicates: LikelyDuplicate[];
   shares: CollectorShare[];
 }
@@ -113,11 +118,19 @@ export function mergeBundles(base: Bundle, incoming: Bundle): MergeResult {
         message: `refused: event ${e.id} (seq ${e.seq} in the second bundle) differs between the bundles; one of the files was altered`,
       };
   }
+  const studyA = base.study as unknown as Record<string, unknown>;
+  const studyB = incoming.study as unknown as Record<string, unknown>;
+  const studyDiffers = [...new Set([...Object.keys(studyA), ...Object.keys(studyB)])]
+    .filter((k) => k !== 'setup' && canonicalJson(studyA[k] ?? null) !== canonicalJson(studyB[k] ?? null))
+    .sort();
   let bundle: Bundle;
   if (added === 0) bundle = base;
   else {
     const events = [...byId.values()].sort(compareEvents).map((e, i) => ({ ...e, seq: i + 1 }));
-    bundle = makeBundle(base.study, events);
+    const ta = Date.parse(base.study.createdAt);
+    const tb = Date.parse(incoming.study.createdAt);
+    const keepIncoming = tb < ta || (tb === ta && canonicalJson(studyB) < canonicalJson(studyA));
+    bundle = makeBundle(keepIncoming ? incoming.study : base.study, events);
   }
   return {
     ok: true,
@@ -125,6 +138,7 @@ export function mergeBundles(base: Bundle, incoming: Bundle): MergeResult {
     report: {
       added,
       alreadyPresent,
+      studyDiffers,
       duplicates: likelyDuplicates(bundle.events),
       shares: collectorShares(bundle.events),
     },

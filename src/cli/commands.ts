@@ -1,12 +1,17 @@
 /** The command registry. Each command module exports `{ summary, run(args) → stdout text }`. */
 import * as assess from './assess.ts';
+import * as bundle from './bundle.ts';
+import * as exportCommand from './export.ts';
 import { helpText } from './help.ts';
 import type { ParsedArgs } from './io.ts';
 import { UsageError } from './io.ts';
+import * as merge from './merge.ts';
 
 export interface Command {
   summary: string;
   run(args: ParsedArgs): string;
+  /** Full text for `help COMMAND` (commands without it are covered by help.ts). */
+  help?: string;
 }
 
 function pending(name: string): Command {
@@ -21,15 +26,17 @@ function pending(name: string): Command {
 export const commands: Record<string, Command> = {
   assess,
   replay: pending('replay'),
-  bundle: pending('bundle'),
-  export: pending('export'),
-  merge: pending('merge'),
+  bundle,
+  export: exportCommand,
+  merge,
   help: {
     summary: 'this help; `help COMMAND` for one command (e.g. `help assess`)',
     run: (args) => {
       const topic = args.positional[0];
       if (topic !== undefined && !(topic in commands))
         throw new UsageError(`no help topic "${topic}"; try \`sure-enough help\``);
+      const own = topic !== undefined ? commands[topic]?.help : undefined;
+      if (own !== undefined) return own;
       return helpText(
         topic,
         Object.entries(commands).map(([k, c]) => [k, c.summary] as const),

@@ -22,7 +22,7 @@ export interface ParsedArgs {
 }
 
 /** Flags that take no value. */
-const BOOLEAN_FLAGS = new Set(['help', 'naive-too']);
+const BOOLEAN_FLAGS = new Set(['help', 'naive-too', 'dictionary']);
 
 export function parseArgs(argv: readonly string[]): ParsedArgs {
   const positional: string[] = [];

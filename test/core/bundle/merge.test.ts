@@ -108,3 +108,17 @@ describe('mergeBundles', () => {
     ]);
   });
 });
+
+describe('mergeBundles — study records that differ outside the setup', () => {
+  it('keeps the record created first, whichever bundle comes first, and names the differences', () => {
+    const later = { ...st, name: 'Sedge plots (desk copy)', createdAt: '2026-05-04T10:00:00+02:00' };
+    const C = makeBundle(later, b);
+    const r1 = mergeBundles(A, C);
+    const r2 = mergeBundles(C, A);
+    expect(r1.ok && r2.ok).toBe(true);
+    if (!r1.ok || !r2.ok) return;
+    expect(r1.bundle.study.name).toBe('Sedge plots, north meadow');
+    expect(serializeBundle(r1.bundle)).toBe(serializeBundle(r2.bundle));
+    expect(r1.report.studyDiffers).toEqual(['createdAt', 'name']);
+  });
+});
