@@ -17,6 +17,8 @@
  * entry's projected total when the previous assessment is passed in (`options.previous`); `details`
  * carries `moreSmoothed` and the raw figure `moreRawLikely` whenever the clamp acted.
  */
+
+import { assessDesign, usesDesign } from './design/index.ts';
 import type { AnalysisSetup, Assessment, More, Point, Sided, Target, Verdict } from './model/types.ts';
 import { countModel } from './stats/kinds/count.ts';
 import type { KindModel } from './stats/kinds/kind-model.ts';
@@ -292,6 +294,8 @@ function projectMore(
  */
 export function assess(points: readonly Point[], setup: AnalysisSetup): Assessment {
   validateSetup(setup);
+  // Field designs (strata, primary units, composites, non-detects): src/design (issue 7).
+  if (usesDesign(points, setup)) return assessDesign(points, setup);
   const summary = new RunningSummary();
   const values: number[] = [];
   let previous: Assessment | null = null;

@@ -19,11 +19,6 @@ export function run(args: ParsedArgs): string {
   const text = readInput(args.positional[0]);
   const parsed = parseValues(text, setup.kind);
   if (!parsed.ok) throw new UsageError(parsed.errors.join('\n'));
-  const firstCensored = parsed.points.findIndex((p) => p.censored);
-  if (firstCensored >= 0)
-    throw new UsageError(
-      `line ${parsed.lines[firstCensored]}: values below a reporting limit (<RL) are not supported by assess yet`,
-    );
   if (setup.population !== undefined && parsed.points.length > setup.population)
     throw new UsageError(
       `flag --population: ${parsed.points.length} values were given but the population has only ${setup.population} units`,

@@ -43,13 +43,39 @@ const STUDY_FLAGS_TEXT = `Study flags (assess, bundle, replay):
   --iwao-alpha A --iwao-beta B
                        counts: Iwao's patchiness regression (used by the stop lines of the stopping rules)
   --sprt-alpha A --sprt-beta B --sprt-lower P0 --sprt-upper P1
-                       Wald SPRT: error rates (default 0.05, 0.10) and the indifference zone around the limit`;
+                       Wald SPRT: error rates (default 0.05, 0.10) and the indifference zone around the limit
+
+Field designs (see Input for the stratum and primary-unit columns):
+  --strata "NAME:W,NAME:W"
+                       declared strata with weights (area share, hectares or number of units; rescaled to
+                       sum to 1), e.g. --strata "woodland:0.6,meadow:0.4". The estimate is the stratified mean
+                       (Cochran 1977 ch. 5) with a Student t interval on Satterthwaite's effective df; every
+                       stratum needs two entries (or two primary units) first. details.whereNext names the
+                       stratum where one more entry narrows the interval most per unit of effort (with
+                       details.whereNextMessage) and details["stratum.NAME.n" / ".mean" / ".sd"] the progress.
+                       Use ; between strata to write weights with a decimal comma.
+  --cost "NAME:C,..."  effort of one entry per stratum (minutes, money; default 1), used by "where next"
+  --design composite   each value is one replicate composite (incremental sample): a one-sided upper bound
+                       by Student t (or Chebyshev with --method chebyshev) from the replicates (ITRC ISM-1);
+                       a single composite gives no bound. The minimum is min(--min, 3) replicates.
+  --non-detects kaplan-meier|half-limit
+                       how <RL results are used (measurements; default kaplan-meier: the Kaplan–Meier mean and
+                       SD, Helsel 2012, with a Student t interval on n − 1 df). Above 50 % non-detects no mean is
+                       given ("not-supportable"). half-limit replaces each <RL by RL/2 and says so in the
+                       warnings — use it only where a regulation prescribes it. A warning is given when a
+                       reporting limit is at or above a limit target.
+  Primary units: when values carry a cluster (transect, room), the primary units are the replicates: ratio
+  mean Σy/Σm with v = s_r²/(n·m̄²) (Cochran 1977 ch. 9), details.designEffect, details.effectiveN and a
+  warning that the entries of one unit are not independent.`;
 
 const INPUT_TEXT = `Input: FILE, or standard input when FILE is "-" or absent.
   One value per line; blank lines and lines starting with # are ignored; a decimal comma is accepted when the
   line holds one number (4,25 = 4.25). Or a CSV whose header has a "value" column (separator , ; or tab).
   pass-fail values are 0 or 1; counts are whole numbers ≥ 0. <RL (e.g. <0.5) marks a measurement below a
-  reporting limit (not yet supported by assess: refused with exit code 2).`;
+  reporting limit (a non-detect; see --non-detects).
+  Field designs: a line may read value,stratum or value,stratum,cluster (value,,cluster for a primary unit
+  without strata), e.g. "12,woodland,T3"; the second field must not start with a digit (4,2 is 4.2). A CSV
+  may carry "stratum" and "cluster" columns beside "value".`;
 
 const ASSESS_TEXT = `usage: sure-enough assess [FILE|-] --kind KIND [study flags]
 

@@ -3,6 +3,8 @@
  * AnalysisSetup. Every mistake is a UsageError naming the flag (exit 2, nothing on stdout).
  * Documented in full by help.ts.
  */
+
+import { parseStrata } from '../design/strata-spec.ts';
 import type {
   AnalysisSetup,
   CountMethod,
@@ -51,6 +53,11 @@ export const STUDY_FLAGS: readonly string[] = [
   'sprt-beta',
   'sprt-lower',
   'sprt-upper',
+  // field designs (issue 7, src/design)
+  'strata',
+  'cost',
+  'design',
+  'non-detects',
 ];
 
 /** Throws a UsageError naming the first flag that is neither a study flag nor in `extra`. */
@@ -188,7 +195,35 @@ export function parseStudyFlags(flags: Map<string, string>): AnalysisSetup {
     setup.sprt = { alpha: sa ?? 0.05, beta: sb ?? 0.1, lowerBound: sl, upperBound: su };
     if (setup.max !== undefined) setup.sprt.maxN = setup.max;
   }
+  parseDesignFlags(flags, setup);
   if (setup.rule === 'sprt' && setup.target?.kind !== 'limit')
     throw new UsageError('flag --rule sprt needs a limit target (--target limit:L)');
   return setup;
+}
+
+/** Field-design flags (issue 7): --strata, --cost, --design composite, --non-detects. */
+function parseDesignFlags(flags: Map<string, string>, setup: AnalysisSetup): void {
+  const strata = flags.get('strata');
+  const cost = flags.get('cost');
+  if (cost !== undefined && strata === undefined) throw new UsageError('flag --cost needs --strata');
+  if (strata !== undefined) {
+    const r = parseStrata(strata, cost);
+    if (!r.ok)
+      throw new UsageError(`flag --${r.problem.startsWith('cost') ? 'cost' : 'strata'}: ${r.problem}`);
+    setup.strata = r.strata;
+  }
+  const design = flags.get('design');
+  if (design !== undefined) {
+    if (design !== 'composite') throw new UsageError(`flag --design: "${design}" is not composite`);
+    if (strata !== undefined)
+      throw new UsageError('flag --design composite cannot be combined with --strata');
+    setup.design = 'composite';
+  }
+  const nd = flags.get('non-detects');
+  if (nd !== undefined) {
+    if (nd !== 'kaplan-meier' && nd !== 'half-limit')
+      throw new UsageError(`flag --non-detects: "${nd}" is not one of kaplan-meier, half-limit`);
+    if (setup.kind !== 'measurement') throw new UsageError('flag --non-detects applies to measurements only');
+    setup.nonDetects = nd;
+  }
 }

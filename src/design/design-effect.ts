@@ -8,12 +8,12 @@
  * Preconditions: clusterVariance ≥ 0 (the variance of the cluster estimate, without finite population
  * correction), elementVariance > 0 (sample variance of all entries, divisor N − 1), entries ≥ 2,
  * meanSize ≥ 1.
- * Returns: deff, the effective number of independent entries, and ρ = (deff − 1)/(m̄ − 1) (null when every
- * primary unit holds one entry).
+ * Returns: deff, the effective number of independent entries, and ρ = (deff − 1)/(m̄ − 1) clipped to
+ * [−1/(m̄ − 1), 1] (null when every primary unit holds one entry).
  * Validity: a ratio of two estimates, itself noisy with few primary units; ρ is the moment form, not a
  * variance-components fit.
- * @example designEffect({ clusterVariance: 0.5, elementVariance: 2, entries: 20, meanSize: 4 })
- *   // { deff: 5, effectiveN: 4, rho: 1.333… }
+ * @example designEffect({ clusterVariance: 0.3, elementVariance: 2, entries: 20, meanSize: 4 })
+ *   // { deff: 3, effectiveN: 6.666…, rho: 0.666… }
  */
 export interface DesignEffect {
   deff: number;
@@ -37,6 +37,6 @@ export function designEffect(args: {
   return {
     deff,
     effectiveN: deff > 0 ? entries / deff : null,
-    rho: meanSize > 1 ? (deff - 1) / (meanSize - 1) : null,
+    rho: meanSize > 1 ? Math.min(1, Math.max(-1 / (meanSize - 1), (deff - 1) / (meanSize - 1))) : null,
   };
 }

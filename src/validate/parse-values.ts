@@ -7,6 +7,9 @@
  * reporting limit (a non-detect, measurements only); pass-fail values are 0 or 1; counts are non-negative
  * integers. A CSV is recognised when the first data line is a header with a `value` column (separator
  * `,`, `;` or tab; with `;` or tab a decimal comma inside the cell is accepted).
+ * Field designs (issue 7): a CSV may add `stratum` and `cluster` columns (primary unit: transect, room,
+ * composite); a plain line may read `value,stratum` or `value,stratum,cluster` (or `value,,cluster`),
+ * recognised when the second field does not start with a digit, sign or point (`4,2` stays 4.2).
  * Returns: `{ ok: true, points, lines }` (lines = the source line of each point) or `{ ok: false, errors }`
  * with messages such as `line 4: "abc" is not a number`.
  * @example parseValues('# depth\n4,2\n5.1\n', 'measurement') // { ok: true, points: [{ value: 4.2 }, { value: 5.1 }] }
@@ -79,7 +82,7 @@ export function parseValues(text: string, kind: DataKind): ParseResult {
   const points: Point[] = [];
   const where: number[] = [];
   const errors: string[] = [];
-  let csv: { sep: string; column: number; width: number } | null = null;
+  let csv: { sep: string; column: number; width: number; stratum?: number; cluster?: number } | null = null;
   let seenData = false;
   for (let i = 0; i < lines.length && errors.length < MAX_ERRORS; i++) {
     const lineNo = i + 1;
@@ -92,6 +95,8 @@ export function parseValues(text: string, kind: DataKind): ParseResult {
         const column = cells.indexOf('value');
         if (column >= 0 && (cells.length > 1 || sep === ',')) {
           csv = { sep, column, width: cells.length };
+          if (cells.includes('stratum')) csv.stratum = cells.indexOf('stratum');
+          if (cells.includes('cluster')) csv.cluster = cells.indexOf('cluster');
           break;
         }
       }
@@ -102,8 +107,20 @@ export function parseValues(text: string, kind: DataKind): ParseResult {
       }
     }
     let cell = line;
+    let stratum: string | undefined;
+    let cluster: string | undefined;
+    if (csv === null) {
+      const m = /^([^,;\t]+)[,;\t]([^,;\t]*)(?:[,;\t]([^,;\t]+))?$/.exec(line);
+      if (m && !/^\s*[-+.\d]/.test(m[2]!) && (m[2]!.trim() !== '' || m[3] !== undefined)) {
+        cell = m[1]!.trim();
+        if (m[2]!.trim() !== '') stratum = m[2]!.trim();
+        if (m[3] !== undefined) cluster = m[3].trim();
+      }
+    }
     if (csv !== null) {
       const cells = splitCsv(line, csv.sep);
+      if (csv.stratum !== undefined && cells[csv.stratum]) stratum = cells[csv.stratum];
+      if (csv.cluster !== undefined && cells[csv.cluster]) cluster = cells[csv.cluster];
       if (cells.length <= csv.column) {
         errors.push(`line ${lineNo}: has no value in the "value" column`);
         continue;
@@ -129,7 +146,10 @@ export function parseValues(text: string, kind: DataKind): ParseResult {
       errors.push(`line ${lineNo}: ${problem.startsWith('is ') ? `${show(cell)} ${problem}` : problem}`);
       continue;
     }
-    points.push(censored ? { value: v, censored: true } : { value: v });
+    const point: Point = censored ? { value: v, censored: true } : { value: v };
+    if (stratum !== undefined) point.stratum = stratum;
+    if (cluster !== undefined) point.cluster = cluster;
+    points.push(point);
     where.push(lineNo);
   }
   if (errors.length > 0) return { ok: false, errors };

@@ -63,11 +63,12 @@ describe('designEffect', () => {
     expect(d.effectiveN).toBeCloseTo(20 / d.deff, 12);
   });
   it('matches the @example and throws on bad input', () => {
-    expect(designEffect({ clusterVariance: 0.5, elementVariance: 2, entries: 20, meanSize: 4 })).toEqual({
-      deff: 5,
-      effectiveN: 4,
-      rho: 4 / 3,
-    });
+    const d = designEffect({ clusterVariance: 0.3, elementVariance: 2, entries: 20, meanSize: 4 });
+    expect(d.deff).toBeCloseTo(3, 12);
+    expect(d.effectiveN).toBeCloseTo(20 / 3, 12);
+    expect(d.rho).toBeCloseTo(2 / 3, 12);
+    // ρ is clipped to at most 1
+    expect(designEffect({ clusterVariance: 0.5, elementVariance: 2, entries: 20, meanSize: 4 }).rho).toBe(1);
     expect(() => designEffect({ clusterVariance: 1, elementVariance: 0, entries: 5, meanSize: 2 })).toThrow(
       RangeError,
     );
