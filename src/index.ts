@@ -3,6 +3,7 @@
  */
 
 export { type AssessOptions, assess, assessSummary, checkTarget, DEFAULT_MIN, halfWidth } from './assess.ts';
+export * from './bundle/index.ts';
 export {
   assessDesign,
   clusterRatioMean,
@@ -17,6 +18,7 @@ export {
   whereNext,
 } from './design/index.ts';
 export { formatStrata, parseStrata } from './design/strata-spec.ts';
+export * from './export/index.ts';
 export type * from './model/types.ts';
 export { fixedPointSampleSize } from './plan/fixed-point-sample-size.ts';
 export { kupperHafnerSampleSize } from './plan/kupper-hafner-assurance.ts';
