@@ -86,7 +86,10 @@ export function StrataPanel(props: StrataPanelProps) {
           onInput={(e) => props.onUnit((e.currentTarget as HTMLInputElement).value)}
         />
       </label>
-      {props.current === null && <p class="hint">Pick the stratum you are in before saving an entry.</p>}
+      <p class="hint" data-testid="next-entry-stratum">
+        Next entries go to <strong>{props.current ?? '—'}</strong>
+        {props.unit.trim() !== '' ? ` · unit ${props.unit.trim()}` : ''}
+      </p>
     </section>
   );
 }
