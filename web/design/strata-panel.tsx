@@ -28,7 +28,10 @@ export function StrataPanel(props: StrataPanelProps) {
   const { setup, points, assessment: a } = props;
   const rows = strataProgress(points, setup);
   const next = typeof a.details.whereNext === 'string' ? a.details.whereNext : null;
-  const why = typeof a.details.whereNextMessage === 'string' ? a.details.whereNextMessage : null;
+  const why =
+    typeof a.details.whereNextMessage === 'string'
+      ? a.details.whereNextMessage.replace(/^Next in [^:]*: /, '')
+      : null;
   const total = rows.reduce((s, r) => s + r.n, 0);
   let target: number[] | null = null;
   if (rows.every((r) => r.sd !== null) && rows.some((r) => (r.sd ?? 0) > 0) && total > 0) {
@@ -51,7 +54,7 @@ export function StrataPanel(props: StrataPanelProps) {
           {why && <span class="why"> — {why}</span>}
         </p>
       )}
-      <ul class="strata-list">
+      <ul class="strata-list" style={{ listStyle: 'none', padding: 0, margin: '0.25rem 0' }}>
         {rows.map((r, i) => {
           const max = Math.max(2, Math.ceil(target?.[i] ?? 2), r.n);
           return (
@@ -72,7 +75,12 @@ export function StrataPanel(props: StrataPanelProps) {
                 <span class="stratum-needs"> · needs {Math.max(0, 2 - (r.clusters || r.n))} more</span>
               )}
               <span class="stratum-weight"> · weight {pct(r.weight)}</span>
-              {target && <span class="stratum-target"> · Neyman share ≈ {target[i]!.toFixed(1)}</span>}
+              {target && (
+                <span class="stratum-target" title="Neyman allocation of the entries so far">
+                  {' '}
+                  · best share of {total} ≈ {target[i]!.toFixed(1)}
+                </span>
+              )}
             </li>
           );
         })}
