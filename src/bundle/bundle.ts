@@ -28,51 +28,61 @@ export function eventLogHash(events: readonly ObservationRecord[]): string {
   return sha256Hex(canonicalJson(events));
 }
 
-const SETUP_KEYS: readonly (keyof StudySetup)[] = [
-  'kind',
-  'level',
-  'sided',
-  'method',
-  'target',
-  'rule',
-  'min',
-  'population',
-  'plotArea',
-  'max',
-  'planning',
-  'sprt',
-  'unit',
-  'plotAreaUnit',
-  'outcomeName',
-  'taxon',
-  'samplingProtocol',
-  'reportingLimit',
-];
-const STUDY_KEYS: readonly (keyof StudyRecord)[] = [
-  'id',
-  'name',
-  'createdAt',
-  'setup',
-  'notes',
-  'version',
-  'supersedes',
-];
-const EVENT_KEYS: readonly (keyof ObservationRecord)[] = [
-  'id',
-  'studyId',
-  'seq',
-  'at',
-  'value',
-  'censored',
-  'stratum',
-  'cluster',
-  'position',
-  'note',
-  'device',
-  'voids',
-  'reason',
-  'label',
-];
+/**
+ * Every member of each record type, checked by the compiler: adding a field to StudySetup, StudyRecord or
+ * ObservationRecord without listing it here is a type error (so the bundle never drops it silently).
+ */
+const SETUP_MEMBERS: Record<keyof StudySetup, true> = {
+  kind: true,
+  level: true,
+  sided: true,
+  method: true,
+  target: true,
+  rule: true,
+  min: true,
+  population: true,
+  plotArea: true,
+  max: true,
+  planning: true,
+  sprt: true,
+  strata: true,
+  design: true,
+  nonDetects: true,
+  unit: true,
+  plotAreaUnit: true,
+  outcomeName: true,
+  taxon: true,
+  samplingProtocol: true,
+  reportingLimit: true,
+};
+const STUDY_MEMBERS: Record<keyof StudyRecord, true> = {
+  id: true,
+  name: true,
+  createdAt: true,
+  setup: true,
+  notes: true,
+  version: true,
+  supersedes: true,
+};
+const EVENT_MEMBERS: Record<keyof ObservationRecord, true> = {
+  id: true,
+  studyId: true,
+  seq: true,
+  at: true,
+  value: true,
+  censored: true,
+  stratum: true,
+  cluster: true,
+  position: true,
+  note: true,
+  device: true,
+  voids: true,
+  reason: true,
+  label: true,
+};
+const SETUP_KEYS = Object.keys(SETUP_MEMBERS) as (keyof StudySetup)[];
+const STUDY_KEYS = Object.keys(STUDY_MEMBERS) as (keyof StudyRecord)[];
+const EVENT_KEYS = Object.keys(EVENT_MEMBERS) as (keyof ObservationRecord)[];
 
 /** The bundle's known field names (validation refuses any other). */
 export const KNOWN_KEYS = {
@@ -92,6 +102,13 @@ function copyJson<T>(value: T): T {
   return value === undefined ? value : (JSON.parse(JSON.stringify(value)) as T);
 }
 
+/** An event with only the bundle's members (storage-only members left out), as a fresh copy. */
+export function cleanEvent(e: ObservationRecord): ObservationRecord {
+  const c = copyJson(pick(e, EVENT_KEYS));
+  if (e.position) c.position = pick(e.position, ['lat', 'lon', 'accuracyM'] as (keyof Position)[]);
+  return c;
+}
+
 /**
  * Builds a bundle from stored records: keeps only the schema's fields (storage-only fields are left
  * out), orders events by seq, and computes the checksum. The records are copied, not shared.
@@ -99,13 +116,7 @@ function copyJson<T>(value: T): T {
 export function makeBundle(study: StudyRecord, events: readonly ObservationRecord[]): Bundle {
   const s = pick(study, STUDY_KEYS);
   const cleanStudy: StudyRecord = { ...copyJson(s), setup: copyJson(pick(study.setup, SETUP_KEYS)) };
-  const cleanEvents = [...events]
-    .sort((a, b) => a.seq - b.seq)
-    .map((e) => {
-      const c = copyJson(pick(e, EVENT_KEYS));
-      if (e.position) c.position = pick(e.position, ['lat', 'lon', 'accuracyM'] as (keyof Position)[]);
-      return c;
-    });
+  const cleanEvents = [...events].sort((a, b) => a.seq - b.seq).map(cleanEvent);
   return {
     format: BUNDLE_FORMAT,
     version: BUNDLE_VERSION,

@@ -4,6 +4,7 @@ export {
   BUNDLE_VERSION,
   type Bundle,
   bundleChecksum,
+  cleanEvent,
   eventLogHash,
   makeBundle,
   serializeBundle,

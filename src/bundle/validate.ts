@@ -132,6 +132,36 @@ function checkSetup(p: Problems, setup: unknown): void {
   p.number(`${w}.reportingLimit`, setup.reportingLimit, false, (n) => n > 0, 'greater than 0');
   for (const k of ['unit', 'plotAreaUnit', 'outcomeName', 'taxon', 'samplingProtocol'] as const)
     p.string(`${w}.${k}`, setup[k], false);
+  if (setup.design !== undefined && setup.design !== 'composite')
+    p.add(`${w}.design`, `must be "composite" when present, got ${show(setup.design)}`);
+  if (
+    setup.nonDetects !== undefined &&
+    setup.nonDetects !== 'kaplan-meier' &&
+    setup.nonDetects !== 'half-limit'
+  )
+    p.add(`${w}.nonDetects`, `must be kaplan-meier or half-limit, got ${show(setup.nonDetects)}`);
+  if (setup.strata !== undefined) {
+    if (!Array.isArray(setup.strata)) p.add(`${w}.strata`, `must be an array, got ${show(setup.strata)}`);
+    else {
+      const names = new Set<string>();
+      setup.strata.forEach((st, i) => {
+        const ws = `${w}.strata[${i}]`;
+        if (!isObj(st)) {
+          p.add(ws, `must be an object, got ${show(st)}`);
+          return;
+        }
+        p.unknownKeys(ws, st, ['name', 'weight', 'cost', 'population']);
+        p.string(`${ws}.name`, st.name, true, true);
+        if (typeof st.name === 'string') {
+          if (names.has(st.name)) p.add(`${ws}.name`, `"${st.name}" is listed twice`);
+          names.add(st.name);
+        }
+        p.number(`${ws}.weight`, st.weight, true, (n) => n > 0, 'greater than 0');
+        p.number(`${ws}.cost`, st.cost, false, (n) => n > 0, 'greater than 0');
+        p.number(`${ws}.population`, st.population, false, positiveInt, 'a whole number ≥ 1');
+      });
+    }
+  }
   const t = setup.target;
   if (t !== undefined) {
     if (!isObj(t)) p.add(`${w}.target`, `must be an object, got ${show(t)}`);

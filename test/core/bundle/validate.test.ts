@@ -233,3 +233,43 @@ describe('checksum reproduced outside the app (the Python recipe in src/bundle/S
     expect(py).toBe(b.checksum.value);
   });
 });
+
+describe('setup members added for strata and designs', () => {
+  it('a stratified setup round-trips; bad strata are named', () => {
+    const st = study({
+      strata: [
+        { name: 'wet', weight: 2 },
+        { name: 'dry', weight: 1, cost: 3, population: 40 },
+      ],
+      nonDetects: 'kaplan-meier',
+    });
+    const b = makeBundle(
+      st,
+      entries(st, [1, 2], 'x', 2, 0, (i) => ({ stratum: i ? 'dry' : 'wet' })),
+    );
+    const r = parseBundle(serializeBundle(b));
+    expect(r.ok && r.bundle.study.setup.strata).toEqual(st.setup.strata);
+    const bad = JSON.parse(serializeBundle(b));
+    bad.study.setup.strata = [
+      { name: 'wet', weight: 0 },
+      { name: 'wet', weight: 1, colour: 'red' },
+    ];
+    bad.study.setup.design = 'grid';
+    bad.checksum.value = bundleChecksum(bad.study, bad.events);
+    const p = problemsOf(JSON.stringify(bad));
+    expect(p).toEqual([
+      'study.setup.design: must be "composite" when present, got "grid"',
+      'study.setup.strata[0].weight: must be greater than 0, got 0',
+      'study.setup.strata[1].colour: unknown field (not in bundle format version 1)',
+      'study.setup.strata[1].name: "wet" is listed twice',
+    ]);
+  });
+  it('makeBundle leaves out storage-only members but keeps every record member', () => {
+    const st = { ...study(), lockedAt: '2026-05-04T09:00:00+02:00', archivedAt: undefined };
+    const ev = entries(st, [1], 'x', 2).map((e) => ({ ...e, localOnly: 1 }));
+    const b = makeBundle(st, ev);
+    expect('lockedAt' in b.study).toBe(false);
+    expect('localOnly' in (b.events[0] as object)).toBe(false);
+    expect(parseBundle(serializeBundle(b)).ok).toBe(true);
+  });
+});
