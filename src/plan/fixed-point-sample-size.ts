@@ -7,20 +7,33 @@
  * n) and §2.12 / eq. 4.1 (n = n₀/(1 + n₀/N)); the continuous fixed point of the shared METHODS notes §3.1.
  * Preconditions: sigma ≥ 0, d > 0, 0 < p < 1 (p = 1 − α/2 two-sided, 1 − α one-sided); population ≥ 2.
  * Returns: n as a real number ≥ 2 (round up for a count of observations); ≤ population when given.
- * Validity: the t quantile at non-integer df is interpolated linearly in 1/df between integer df
- * (relative error < 1e-5 for df ≥ 1), which keeps every quantile a cached lookup.
+ * Validity: the t quantile at non-integer df is interpolated (quadratic in 1/df) between integer df, which
+ * keeps every quantile a cached lookup.
  * @example fixedPointSampleSize(1, 0.25, 0.975) // 63.8979 (σ = 1, d = 0.25, 95 % two-sided)
  */
 import { cachedStudentTQuantile } from '../stats/quantile-cache.ts';
 
-/** t quantile at a real df ≥ 1 (interpolated in 1/df between integer df; exact at integers). */
+/**
+ * t quantile at a real df > 0: exact (cached) at integer df; below df 30, the exact quantile at df rounded
+ * to 1/4096 (cached); from df 30 on, quadratic (3-point Lagrange) interpolation in u = 1/df through
+ * ⌊df⌋, ⌊df⌋ + 1, ⌊df⌋ + 2.
+ */
 export function tQuantileAtRealDf(p: number, df: number): number {
   const lo = Math.floor(df);
   if (lo === df) return cachedStudentTQuantile(p, df);
-  const a = cachedStudentTQuantile(p, lo);
-  const b = cachedStudentTQuantile(p, lo + 1);
-  const w = (1 / lo - 1 / df) / (1 / lo - 1 / (lo + 1));
-  return a + w * (b - a);
+  if (df < 30) return cachedStudentTQuantile(p, Math.round(df * 4096) / 4096);
+  const u = 1 / df;
+  const u0 = 1 / lo;
+  const u1 = 1 / (lo + 1);
+  const u2 = 1 / (lo + 2);
+  const t0 = cachedStudentTQuantile(p, lo);
+  const t1 = cachedStudentTQuantile(p, lo + 1);
+  const t2 = cachedStudentTQuantile(p, lo + 2);
+  return (
+    (t0 * (u - u1) * (u - u2)) / ((u0 - u1) * (u0 - u2)) +
+    (t1 * (u - u0) * (u - u2)) / ((u1 - u0) * (u1 - u2)) +
+    (t2 * (u - u0) * (u - u1)) / ((u2 - u0) * (u2 - u1))
+  );
 }
 
 export function fixedPointSampleSize(sigma: number, d: number, p: number, population?: number): number {

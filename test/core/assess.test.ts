@@ -1,0 +1,172 @@
+// assess / assessSummary: guards before any rule, verdicts through the rule seam, "how many more"
+// (METHODS §3.7 worked example, monotone in the target, population cap, smoothing), and equality of the
+// per-entry and batch paths.
+import { describe, expect, it } from 'vitest';
+import { assess, assessSummary, checkTarget } from '../../src/assess.ts';
+import type { AnalysisSetup, Assessment, Point } from '../../src/model/types.ts';
+import { RunningSummary } from '../../src/stats/running-summary.ts';
+
+const pts = (xs: number[]): Point[] => xs.map((value) => ({ value }));
+const base: AnalysisSetup = { kind: 'measurement', level: 0.95, sided: 'two', rule: 'naive', min: 10 };
+const normal12 = [49.2, 51.3, 47.9, 52.4, 50.1, 48.8, 53.0, 50.6, 49.5, 51.9, 47.4, 50.8];
+
+describe('guards (never anything but keep going)', () => {
+  it('before the minimum, with "at least M more"', () => {
+    const a = assess(pts(normal12.slice(0, 6)), { ...base, target: { kind: 'margin', value: 100 } });
+    expect(a.verdict).toMatchObject({ status: 'keep going', reason: 'below-minimum' });
+    expect(a.more).toEqual({ likely: 4, low: 4, high: 4, atLeast: true });
+    expect(a.lower).not.toBeNull(); // the interval is still shown
+  });
+  it('on one distinct value, even with a huge margin', () => {
+    const a = assess(pts(Array(15).fill(3.2)), { ...base, target: { kind: 'margin', value: 100 } });
+    expect(a.verdict).toMatchObject({ status: 'keep going', reason: 'one-distinct-value' });
+  });
+  it('on all-zero counts', () => {
+    const a = assess(pts(Array(20).fill(0)), {
+      ...base,
+      kind: 'count',
+      target: { kind: 'margin', value: 5 },
+    });
+    expect(a.verdict).toMatchObject({ status: 'keep going', reason: 'all-zero' });
+  });
+  it('on counts that are all the same', () => {
+    const a = assess(pts(Array(20).fill(2)), {
+      ...base,
+      kind: 'count',
+      target: { kind: 'margin', value: 5 },
+    });
+    expect(a.verdict).toMatchObject({ status: 'keep going', reason: 'one-distinct-value' });
+  });
+  it('without a target: interval only, more null', () => {
+    const a = assess(pts(normal12), base);
+    expect(a.verdict).toMatchObject({ status: 'keep going', reason: 'no-target' });
+    expect(a.more).toBeNull();
+  });
+  it('pass/fail with none counted is decidable after the minimum (intervals do not rest on s)', () => {
+    const a = assess(pts(Array(150).fill(0)), {
+      ...base,
+      kind: 'pass-fail',
+      target: { kind: 'limit', value: 0.02 },
+    });
+    expect(a.verdict.status).toBe('below limit');
+    expect(a.upper).toBeCloseTo(1 - 0.05 ** (1 / 150), 12);
+    expect(a.method).toBe('clopper-pearson');
+  });
+});
+
+describe('verdicts', () => {
+  it('enough when the half-width meets the margin; more is null then', () => {
+    const a = assess(pts(normal12), { ...base, target: { kind: 'margin', value: 5 } });
+    expect(a.verdict.status).toBe('enough');
+    expect(a.more).toBeNull();
+  });
+  it('limit: below / above by the one-sided bound on the estimate side', () => {
+    const below = assess(pts(normal12), { ...base, target: { kind: 'limit', value: 60 } });
+    expect(below.verdict.status).toBe('below limit');
+    expect(below.sided).toBe('upper');
+    expect(below.lower).toBeNull();
+    const above = assess(pts(normal12), { ...base, target: { kind: 'limit', value: 40 } });
+    expect(above.verdict.status).toBe('above limit');
+    expect(above.sided).toBe('lower');
+    const undecided = assess(pts(normal12), { ...base, target: { kind: 'limit', value: 50.5 } });
+    expect(undecided.verdict).toMatchObject({ status: 'keep going', reason: 'undecided' });
+  });
+  it('precision is SE/mean, distinct from the relative half-width (r = z·D)', () => {
+    const iv = { estimate: 10, lower: 8, upper: 12, se: 1 };
+    expect(checkTarget({ kind: 'precision', value: 0.1 }, iv, 'two')).toBe('met');
+    expect(checkTarget({ kind: 'relative', value: 0.1 }, iv, 'two')).toBe('not-met');
+    expect(checkTarget({ kind: 'relative', value: 0.2 }, iv, 'two')).toBe('met');
+  });
+  it('names the method used, falling back to t with a warning when log methods meet a zero', () => {
+    const a = assess(pts([0, ...normal12]), { ...base, method: 'cox' });
+    expect(a.method).toBe('t');
+    expect(a.warnings.join(' ')).toMatch(/above zero/);
+    const b = assess(pts(normal12), { ...base, method: 'land', sided: 'upper' });
+    expect(b.method).toBe('land');
+    expect(b.methodLabel).toMatch(/Land/);
+  });
+  it('counts: exact Poisson unless overdispersed, dispersion index reported, density per area', () => {
+    const pois = assess(pts([2, 1, 3, 2, 2, 1, 0, 4, 2, 3]), { ...base, kind: 'count', plotArea: 0.5 });
+    expect(pois.method).toBe('poisson-exact');
+    expect(pois.details.density).toBeCloseTo(4, 12);
+    const clumped = assess(pts([0, 3, 1, 7, 0, 0, 2, 9, 1, 0, 4, 0, 5]), { ...base, kind: 'count' });
+    expect(clumped.method).toBe('t');
+    expect(clumped.details.dispersionIndex).toBeCloseTo(3.6302, 4);
+    expect(clumped.lower!).toBeGreaterThanOrEqual(0);
+  });
+});
+
+describe('how many more', () => {
+  it('METHODS §3.7 example through the core: n = 8, s = 2, d = 1 → likely 10 more, 4–33, assured 14 [derived]', () => {
+    // eight values with sd exactly 2: ±√(7/2)·… built from a symmetric pattern
+    const k = Math.sqrt((4 * 7) / 8);
+    const xs = [10 - k, 10 + k, 10 - k, 10 + k, 10 - k, 10 + k, 10 - k, 10 + k];
+    const s = RunningSummary.of(xs);
+    expect(s.sd).toBeCloseTo(2, 12);
+    const a = assessSummary(s, { ...base, min: 8, target: { kind: 'margin', value: 1 } });
+    expect(a.more).toEqual({ likely: 10, low: 4, high: 33, assured: 14 });
+  });
+  it('monotone in the target: a tighter margin never needs fewer', () => {
+    let prev = -1;
+    for (const d of [3, 2, 1.5, 1, 0.7, 0.5, 0.3]) {
+      const a = assess(pts(normal12), { ...base, target: { kind: 'margin', value: d } });
+      const likely = a.more?.likely ?? 0;
+      expect(likely).toBeGreaterThanOrEqual(prev);
+      prev = likely;
+      if (a.more) {
+        expect(a.more.low).toBeLessThanOrEqual(a.more.likely);
+        expect(a.more.high).toBeGreaterThanOrEqual(a.more.likely);
+      }
+    }
+  });
+  it('respects the population: never more than N − n', () => {
+    const a = assess(pts(normal12), { ...base, population: 30, target: { kind: 'margin', value: 0.1 } });
+    expect(a.more!.likely).toBeLessThanOrEqual(18);
+    expect(a.more!.high).toBeLessThanOrEqual(18);
+  });
+  it('smoothing: the likely total moves by at most ±50 % per entry, and says so', () => {
+    const s = RunningSummary.of(normal12);
+    const setup = { ...base, target: { kind: 'margin' as const, value: 0.5 } };
+    const prev: Assessment = { ...assessSummary(s, setup), n: 11, more: { likely: 5, low: 3, high: 9 } };
+    const a = assessSummary(s, setup, normal12, { previous: prev });
+    expect(a.n + a.more!.likely).toBeLessThanOrEqual(Math.ceil(16 * 1.5));
+    expect(a.details.moreSmoothed).toBe(true);
+    expect(a.details.moreRawLikely).toBeGreaterThan(a.more!.likely);
+  });
+  it('counts with a negative-binomial k: projection from the count model', () => {
+    const counts = [0, 3, 1, 7, 0, 0, 2, 9, 1, 0, 4, 0, 5];
+    const a = assess(pts(counts), {
+      ...base,
+      kind: 'count',
+      method: 'quasi-poisson',
+      planning: { negBinomialK: 0.5 },
+      target: { kind: 'precision', value: 0.25 },
+    });
+    const m = counts.reduce((x, y) => x + y, 0) / counts.length;
+    expect(a.more!.likely).toBe(Math.ceil((1 / m + 1 / 0.5) / 0.0625) - counts.length);
+  });
+  it('pass/fail margin: from the Agresti–Coull centre, range from the Wilson limits', () => {
+    const xs = Array.from({ length: 60 }, (_, i) => (i % 6 === 0 ? 1 : 0));
+    const a = assess(pts(xs), { ...base, kind: 'pass-fail', target: { kind: 'margin', value: 0.05 } });
+    expect(a.more!.likely).toBeGreaterThan(100);
+    expect(a.more!.low).toBeLessThan(a.more!.likely);
+    expect(a.more!.high).toBeGreaterThan(a.more!.likely);
+  });
+});
+
+describe('per-entry and batch paths agree', () => {
+  it('assessSummary after add/remove equals assess on the remaining points', () => {
+    const s = RunningSummary.of([...normal12, 99]);
+    s.remove(99);
+    const setup = { ...base, target: { kind: 'margin' as const, value: 1 } };
+    const a = assessSummary(s, setup);
+    const b = assess(pts(normal12), setup);
+    expect(a.lower).toBeCloseTo(b.lower!, 10);
+    expect(a.upper).toBeCloseTo(b.upper!, 10);
+    expect(a.verdict).toEqual(b.verdict);
+  });
+  it('refuses a level outside (0, 1) and n above the population', () => {
+    expect(() => assess(pts(normal12), { ...base, level: 1 })).toThrow(RangeError);
+    expect(() => assess(pts(normal12), { ...base, population: 5 })).toThrow(RangeError);
+  });
+});

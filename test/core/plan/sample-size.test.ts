@@ -1,0 +1,118 @@
+// Planning formulas against the shared METHODS §3 worked figures (evidence beside each) and scipy
+// (stats-plan.json, `python3 test/fixtures/stats-fixtures.py`).
+import { describe, expect, it } from 'vitest';
+import { sigmaQuantile } from '../../../src/plan/chi-square-sigma-limits.ts';
+import { countSampleSize } from '../../../src/plan/count-sample-size.ts';
+import { fixedPointSampleSize } from '../../../src/plan/fixed-point-sample-size.ts';
+import { kupperHafnerSampleSize } from '../../../src/plan/kupper-hafner-assurance.ts';
+import { logScaleRelativeSampleSize } from '../../../src/plan/log-scale-relative-sample-size.ts';
+import { projectMeasurement } from '../../../src/plan/measurement-projection.ts';
+import { proportionSampleSize, zeroAcceptanceSampleSize } from '../../../src/plan/proportion-sample-size.ts';
+import fx from '../../fixtures/stats-plan.json';
+
+describe('t fixed point n = (t₍n−1₎σ/d)² (Cochran 1977 §4.4)', () => {
+  it('σ = 1, d = 0.25, 0.5, 0.75, 1 → 63.898, 17.832, 9.326, 6.353 (shared check values) [derived]', () => {
+    const want = [63.897899, 17.832337, 9.325967, 6.352717];
+    [0.25, 0.5, 0.75, 1].forEach((d, i) => {
+      expect(Math.abs(fixedPointSampleSize(1, d, 0.975) - want[i]!) / want[i]!).toBeLessThan(2e-5);
+    });
+  });
+  it.each(fx.cases.fixedPoint)('σ=$sigma d=$d p=$p vs scipy brentq [derived]', (c) => {
+    expect(Math.abs(fixedPointSampleSize(c.sigma, c.d, c.p) - c.n) / c.n).toBeLessThan(2e-5);
+  });
+  it('with a population: n = n₀/(1 + n₀/N), never above N', () => {
+    const n = fixedPointSampleSize(1, 0.1, 0.975, 200);
+    expect(n).toBeLessThan(200);
+    const n0 = fixedPointSampleSize(1, 0.1, 0.975);
+    expect(n).toBeLessThan(n0);
+    expect(fixedPointSampleSize(10, 0.01, 0.975, 50)).toBeLessThanOrEqual(50);
+  });
+  it('monotone: more for a tighter target, more for a larger σ', () => {
+    let prev = 0;
+    for (const d of [2, 1, 0.5, 0.2, 0.1, 0.05]) {
+      const n = fixedPointSampleSize(1, d, 0.975);
+      expect(n).toBeGreaterThanOrEqual(prev);
+      prev = n;
+    }
+  });
+});
+
+describe('Kupper & Hafner (1989) assurance', () => {
+  it('d/σ = 0.5, 95 %: γ = 0.5, 0.8, 0.9, 0.95 → 18, 22, 24, 26 (shared check values) [derived]', () => {
+    expect([0.5, 0.8, 0.9, 0.95].map((g) => kupperHafnerSampleSize(1, 0.5, 0.975, g))).toEqual([
+      18, 22, 24, 26,
+    ]);
+  });
+  it('d/σ = 0.25: γ = 0.8 → 73, γ = 0.9 → 77, γ = 0.95 → 81 (METHODS §3.6) [derived]', () => {
+    expect([0.8, 0.9, 0.95].map((g) => kupperHafnerSampleSize(1, 0.25, 0.975, g))).toEqual([73, 77, 81]);
+  });
+  it.each(fx.cases.kupperHafner)('σ=$sigma d=$d γ=$gamma vs scipy search [derived]', (c) => {
+    expect(kupperHafnerSampleSize(c.sigma, c.d, c.p, c.gamma)).toBe(c.n);
+  });
+});
+
+describe('likely range from the chi-square distribution of σ (METHODS §3.7)', () => {
+  it.each(fx.cases.sigmaQuantile)('s=$s n=$n q=$q vs scipy [derived]', (c) => {
+    expect(sigmaQuantile(c.s, c.n, c.q)).toBeCloseTo(c.sigma, 8);
+  });
+  it('n = 8, s = 2, d = 1: point 17.8, range 11.4–40.4, assured 22 (METHODS §3.7 example) [derived]', () => {
+    const r = projectMeasurement({ n: 8, s: 2, d: 1, p: 0.975 });
+    expect(r.likely).toBeCloseTo(17.8, 1);
+    expect(r.low).toBeCloseTo(11.4, 1);
+    expect(r.high).toBeCloseTo(40.4, 1);
+    expect(r.assured).toBe(22);
+  });
+});
+
+describe('counts (Krebs 1999 ch. 7; Elliott 1977; Karandinos 1976)', () => {
+  it('NB m = 2, k = 0.5: D = 0.25 → 40; r = 0.25 at 95 % → 153.7 (METHODS §3.4) [derived]', () => {
+    const nb = { kind: 'negative-binomial', k: 0.5 } as const;
+    expect(countSampleSize({ m: 2, variance: nb, target: 'precision', value: 0.25 })).toBeCloseTo(40, 10);
+    expect(countSampleSize({ m: 2, variance: nb, target: 'relative', value: 0.25 })).toBeCloseTo(153.66, 1);
+  });
+  it('Taylor a = 2, b = 1.5, m = 2, D = 0.25 → 22.6 (METHODS §3.4) [derived]', () => {
+    const n = countSampleSize({
+      m: 2,
+      variance: { kind: 'taylor', a: 2, b: 1.5 },
+      target: 'precision',
+      value: 0.25,
+    });
+    expect(n).toBeCloseTo(22.63, 2);
+  });
+  it('Poisson: n = 1/(m·D²)', () => {
+    expect(
+      countSampleSize({ m: 4, variance: { kind: 'poisson' }, target: 'precision', value: 0.1 }),
+    ).toBeCloseTo(25, 10);
+  });
+});
+
+describe('proportions (Cochran 1977 eq. 4.2, 4.3)', () => {
+  it('p = 0.5, d = 0.05, 95 % → 384.15 [memory: Cochran eq. 4.2]', () => {
+    expect(proportionSampleSize({ p: 0.5, target: 'margin', value: 0.05, z: 1.959963984540054 })).toBeCloseTo(
+      384.15,
+      2,
+    );
+  });
+  it('Krejcie & Morgan (1970) table N = 100…10000 → 80, 132, 217, 278, 357, 370 [memory; χ² form, so ±1]', () => {
+    const z = 1.959963984540054;
+    const got = [100, 200, 500, 1000, 5000, 10000].map((N) =>
+      Math.ceil(proportionSampleSize({ p: 0.5, target: 'margin', value: 0.05, z, population: N })),
+    );
+    const km = [80, 132, 217, 278, 357, 370];
+    got.forEach((g, i) => {
+      expect(Math.abs(g - km[i]!)).toBeLessThanOrEqual(1);
+    });
+  });
+  it('zero acceptance: p_max = 0.02 at 95 % → 149 items (METHODS §3.3) [derived]', () => {
+    expect(Math.ceil(zeroAcceptanceSampleSize(0.02, 0.05))).toBe(149);
+  });
+});
+
+describe('log-scale relative target (METHODS §3.5)', () => {
+  it('s_y = 1, r = 0.25 → 118.5 [derived]', () => {
+    expect(logScaleRelativeSampleSize(1, 0.25, 0.975)).toBeCloseTo(118.5, 1);
+  });
+  it.each(fx.cases.logRelative)('s_y=$s_y r=$r vs scipy brentq [derived]', (c) => {
+    expect(Math.abs(logScaleRelativeSampleSize(c.s_y, c.r, c.p) - c.n) / c.n).toBeLessThan(2e-5);
+  });
+});
