@@ -19,6 +19,7 @@ export {
 } from './design/index.ts';
 export { formatStrata, parseStrata } from './design/strata-spec.ts';
 export * from './export/index.ts';
+export type * from './model/records.ts';
 export type * from './model/types.ts';
 export { fixedPointSampleSize } from './plan/fixed-point-sample-size.ts';
 export { kupperHafnerSampleSize } from './plan/kupper-hafner-assurance.ts';

@@ -1,0 +1,97 @@
+/** The app shell: banners that concern every screen, and the router. */
+import type { VNode } from 'preact';
+import { useEffect } from 'preact/hooks';
+import { dbBlocked, halfTyped, offlineReady, updateWaiting } from '../state/app-state.ts';
+import { useStore } from '../state/store.ts';
+import { useRoute } from './router.ts';
+import { FieldScreen } from './screens/field.tsx';
+import { LogScreen } from './screens/log.tsx';
+import { NewStudyScreen } from './screens/new-study.tsx';
+import { ReportScreen } from './screens/report.tsx';
+import { DemoScreen, StudiesScreen } from './screens/studies.tsx';
+
+function Banners() {
+  const blocked = useStore(dbBlocked);
+  const accept = useStore(updateWaiting);
+  const typing = useStore(halfTyped);
+  const ready = useStore(offlineReady);
+  useEffect(() => {
+    if (!ready) return;
+    const t = setTimeout(() => offlineReady.set(false), 8000);
+    return () => clearTimeout(t);
+  }, [ready]);
+  return (
+    <div class="banners">
+      {blocked && (
+        <div class="banner warn" role="alert">
+          <p>Sure Enough was updated in another tab. Reload this page to keep saving.</p>
+          <button type="button" class="btn" onClick={() => window.location.reload()}>
+            Reload
+          </button>
+        </div>
+      )}
+      {accept && !typing && (
+        <div class="banner" role="status" data-testid="update">
+          <p>A new version is ready. Your entries are saved.</p>
+          <button type="button" class="btn primary" onClick={accept}>
+            Update
+          </button>
+        </div>
+      )}
+      {ready && (
+        <div class="banner ok" role="status">
+          <p>Ready to work offline.</p>
+          <button type="button" class="btn" onClick={() => offlineReady.set(false)}>
+            OK
+          </button>
+        </div>
+      )}
+    </div>
+  );
+}
+
+export function App() {
+  const route = useRoute();
+  useEffect(() => {
+    document.getElementById('main')?.focus();
+    window.scrollTo(0, 0);
+  }, [route.screen, 'id' in route ? route.id : '']);
+  let screen: VNode;
+  switch (route.screen) {
+    case 'studies':
+      screen = <StudiesScreen archived={route.archived} />;
+      break;
+    case 'new':
+      screen = <NewStudyScreen key={`${route.from}-${route.mode}`} {...route} />;
+      break;
+    case 'demo':
+      screen = <DemoScreen />;
+      break;
+    case 'field':
+      screen = <FieldScreen key={route.id} id={route.id} />;
+      break;
+    case 'log':
+      screen = <LogScreen key={route.id} id={route.id} />;
+      break;
+    case 'report':
+      screen = <ReportScreen key={route.id} id={route.id} />;
+      break;
+    default:
+      screen = (
+        <div class="screen">
+          <h1>Not found</h1>
+          <p>
+            Nothing lives at “{route.path}”. <a href="#/">Back to the studies</a>
+          </p>
+        </div>
+      );
+  }
+  return (
+    <>
+      <Banners />
+      <main id="main" tabIndex={-1}>
+        {screen}
+      </main>
+    </>
+  );
+}

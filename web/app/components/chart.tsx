@@ -1,0 +1,131 @@
+/**
+ * The running estimate and its interval against n, the target (band or limit line) and where the
+ * projection meets it. Plain SVG; the series is already downsampled (≤ 160 points), so drawing is
+ * bounded work whatever the number of entries.
+ */
+import type { Assessment, Target } from '../../core.ts';
+import type { SeriesPoint } from '../../state/session.ts';
+
+const W = 360;
+const H = 100;
+const PAD = { l: 40, r: 10, t: 10, b: 22 };
+
+export interface ChartProps {
+  series: readonly SeriesPoint[];
+  current: Assessment;
+  target: Target | undefined;
+  /** Multiplier for labels (100 for pass/fail percentages). */
+  scale: number;
+  label: string;
+}
+
+/** Tick label with enough decimals to tell ticks `step` apart. */
+function nice(x: number, step: number): string {
+  const d = step > 0 ? Math.min(6, Math.max(0, 1 - Math.floor(Math.log10(step)))) : 2;
+  return x.toFixed(d);
+}
+
+export function Chart({ series, current, target, scale, label }: ChartProps) {
+  const pts = series.filter((p) => Number.isFinite(p.lower) && Number.isFinite(p.upper));
+  const last = pts.at(-1);
+  if (!last || pts.length < 2) {
+    return (
+      <figure class="chart empty">
+        <p class="empty-note">The chart starts after a few entries.</p>
+      </figure>
+    );
+  }
+  const n = current.n;
+  const more = current.verdict.status === 'keep going' && current.more ? current.more.likely : 0;
+  const meetN = more > 0 ? n + more : null;
+  const xMax = Math.max(meetN ?? n, n, 2);
+  const est = current.estimate ?? last.estimate;
+  let band: [number, number] | null = null;
+  let limit: number | null = null;
+  if (target?.kind === 'margin') band = [est - target.value, est + target.value];
+  else if (target?.kind === 'relative') band = [est * (1 - target.value), est * (1 + target.value)];
+  else if (target?.kind === 'limit') limit = target.value;
+  // The y range follows the later half of the series so the early, very wide intervals do not flatten it.
+  const recent = pts.slice(Math.floor(pts.length / 3));
+  let lo = Math.min(...recent.map((p) => p.lower));
+  let hi = Math.max(...recent.map((p) => p.upper));
+  for (const v of [...(band ?? []), ...(limit !== null ? [limit] : [])]) {
+    lo = Math.min(lo, v);
+    hi = Math.max(hi, v);
+  }
+  if (hi - lo < 1e-12) {
+    hi += 1;
+    lo -= 1;
+  }
+  const span = hi - lo;
+  lo -= span * 0.08;
+  hi += span * 0.08;
+  const x = (v: number) => PAD.l + ((v - 1) / (xMax - 1)) * (W - PAD.l - PAD.r);
+  const y = (v: number) =>
+    PAD.t + (1 - (Math.min(hi, Math.max(lo, v)) - lo) / (hi - lo)) * (H - PAD.t - PAD.b);
+  const line = (f: (p: SeriesPoint) => number) =>
+    pts.map((p, i) => `${i ? 'L' : 'M'}${x(p.n).toFixed(1)},${y(f(p)).toFixed(1)}`).join('');
+  const area = `${line((p) => p.upper)}${[...pts]
+    .reverse()
+    .map((p) => `L${x(p.n).toFixed(1)},${y(p.lower).toFixed(1)}`)
+    .join('')}Z`;
+  const ticks = [lo + (hi - lo) * 0.1, (lo + hi) / 2, hi - (hi - lo) * 0.1];
+  const desc =
+    `${label}. Running estimate and interval for n = ${pts[0]?.n} to ${last.n}` +
+    (limit !== null
+      ? `, limit line at ${nice(limit * scale, (hi - lo) * scale)}`
+      : band
+        ? ', target band around the estimate'
+        : '') +
+    (meetN ? `; projection meets the target near n = ${meetN}.` : '.');
+  return (
+    <figure class="chart">
+      <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-label={desc}>
+        <rect class="plot-bg" x={PAD.l} y={PAD.t} width={W - PAD.l - PAD.r} height={H - PAD.t - PAD.b} />
+        {band && (
+          <rect
+            class="target-band"
+            x={PAD.l}
+            width={W - PAD.l - PAD.r}
+            y={y(band[1])}
+            height={Math.max(1, y(band[0]) - y(band[1]))}
+          />
+        )}
+        {limit !== null && <line class="limit" x1={PAD.l} x2={W - PAD.r} y1={y(limit)} y2={y(limit)} />}
+        <path class="c-ci" d={area} />
+        <path class="c-est" d={line((p) => p.estimate)} />
+        {meetN && current.lower !== null && current.upper !== null && (
+          <g class="proj">
+            <line
+              x1={x(n)}
+              y1={y(current.upper)}
+              x2={x(meetN)}
+              y2={y(band ? band[1] : (current.upper + est) / 2)}
+            />
+            <line
+              x1={x(n)}
+              y1={y(current.lower)}
+              x2={x(meetN)}
+              y2={y(band ? band[0] : (current.lower + est) / 2)}
+            />
+            <line class="meet" x1={x(meetN)} x2={x(meetN)} y1={PAD.t} y2={H - PAD.b} />
+            <text x={x(meetN) - 3} y={PAD.t + 10} text-anchor="end">
+              ≈ n {meetN}
+            </text>
+          </g>
+        )}
+        {ticks.map((t) => (
+          <text key={t} class="tick" x={PAD.l - 4} y={y(t) + 4} text-anchor="end">
+            {nice(t * scale, ((hi - lo) / 2.5) * scale)}
+          </text>
+        ))}
+        <text class="tick" x={PAD.l} y={H - 6}>
+          n = 1
+        </text>
+        <text class="tick" x={W - PAD.r} y={H - 6} text-anchor="end">
+          {xMax}
+        </text>
+      </svg>
+    </figure>
+  );
+}

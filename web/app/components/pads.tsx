@@ -1,0 +1,375 @@
+/**
+ * The entry pads: numbers (measurements), a counter (counts per plot) and two buttons (pass/fail).
+ * A pad refuses bad input with a message that says what is wrong and where, and saves nothing then.
+ * On a failed write the typed value stays in the pad; "Saved" appears only after the commit.
+ */
+import type { ComponentChildren } from 'preact';
+import { useEffect, useState } from 'preact/hooks';
+import { checkNote, NOTE_MAX, parseCount, parseMeasurement } from '../../input/parse.ts';
+import { setHalfTyped } from '../../state/app-state.ts';
+import type { NewEntry } from '../../storage/observations.ts';
+
+export interface PadProps {
+  disabled: boolean;
+  /** The field screen's Undo-last button, placed in the pad's bottom row. */
+  undo?: ComponentChildren;
+  /** Resolves with the saved entry's seq once committed; rejects with a readable message. */
+  onSave(entry: NewEntry): Promise<number>;
+}
+
+type Msg = { kind: 'error' | 'saved'; text: string } | null;
+
+function useNote() {
+  const [note, setNote] = useState('');
+  const [open, setOpen] = useState(false);
+  return { note, setNote, open, setOpen };
+}
+
+function NoteBox(props: { note: string; setNote(v: string): void; id: string }) {
+  const over = props.note.trim().length > NOTE_MAX;
+  return (
+    <div class="note-box">
+      <label for={props.id}>Note for the next entry</label>
+      <textarea
+        id={props.id}
+        rows={2}
+        value={props.note}
+        onInput={(e) => props.setNote((e.currentTarget as HTMLTextAreaElement).value)}
+      />
+      <span class={over ? 'count over' : 'count'}>
+        {props.note.trim().length} / {NOTE_MAX}
+      </span>
+    </div>
+  );
+}
+
+function PadMessage({ msg }: { msg: Msg }) {
+  return (
+    <p
+      class={`pad-msg ${msg?.kind ?? ''}`}
+      role={msg?.kind === 'error' ? 'alert' : 'status'}
+      data-testid="pad-msg"
+      data-committed={msg?.kind === 'saved' ? '1' : undefined}
+    >
+      {msg?.text ?? ''}
+    </p>
+  );
+}
+
+/** Shared save flow: validate the note, save, keep everything on failure, clear on success. */
+function useSaver(props: PadProps, padKey: string, dirty: boolean) {
+  const [msg, setMsg] = useState<Msg>(null);
+  const [busy, setBusy] = useState(false);
+  useEffect(() => {
+    setHalfTyped(padKey, dirty);
+  }, [padKey, dirty]);
+  useEffect(() => () => setHalfTyped(padKey, false), [padKey]);
+  async function save(entry: NewEntry | { error: string }, note: string, onDone: () => void, what: string) {
+    if ('error' in entry) {
+      setMsg({ kind: 'error', text: `${entry.error} Nothing was saved.` });
+      return;
+    }
+    const n = checkNote(note);
+    if (!n.ok) {
+      setMsg({ kind: 'error', text: n.message });
+      return;
+    }
+    setBusy(true);
+    try {
+      const seq = await props.onSave(n.text ? { ...entry, note: n.text } : entry);
+      onDone();
+      setMsg({ kind: 'saved', text: `Saved #${seq}: ${what}` });
+    } catch (err) {
+      setMsg({ kind: 'error', text: (err as Error).message });
+    } finally {
+      setBusy(false);
+    }
+  }
+  return { msg, setMsg, busy, save };
+}
+
+function Key(props: { label: string; aria?: string; onPress(): void; disabled: boolean; cls?: string }) {
+  return (
+    <button
+      type="button"
+      class={`key ${props.cls ?? ''}`}
+      aria-label={props.aria}
+      disabled={props.disabled}
+      onClick={props.onPress}
+    >
+      {props.label}
+    </button>
+  );
+}
+
+function NoteToggle(props: { open: boolean; toggle(): void; disabled: boolean; has: boolean }) {
+  return (
+    <button
+      type="button"
+      class={`key small ${props.has ? 'on' : ''}`}
+      aria-expanded={props.open}
+      disabled={props.disabled}
+      onClick={props.toggle}
+    >
+      {props.has ? 'Note ✎' : 'Note'}
+    </button>
+  );
+}
+
+export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?: number | undefined }) {
+  const [text, setText] = useState('');
+  const [censored, setCensored] = useState(false);
+  const n = useNote();
+  const dirty = text !== '' || n.note.trim() !== '';
+  const { msg, setMsg, busy, save } = useSaver(props, 'measurement', dirty);
+  const off = props.disabled || busy;
+  const type = (s: string) => {
+    setMsg(null);
+    setText((t) => (t + s).slice(0, 40));
+  };
+  const submit = () => {
+    const p = parseMeasurement(text, 'Value');
+    void save(
+      p.ok ? { value: p.value, ...(censored ? { censored: true } : {}) } : { error: p.message },
+      n.note,
+      () => {
+        setText('');
+        setCensored(false);
+        n.setNote('');
+        n.setOpen(false);
+      },
+      `${censored ? '< ' : ''}${text.trim()} ${props.unit}`.trim(),
+    );
+  };
+  const toggleRl = () => {
+    setCensored((c) => !c);
+    if (!censored && text === '' && props.reportingLimit !== undefined) setText(String(props.reportingLimit));
+  };
+  return (
+    <form
+      class="pad"
+      aria-label="Entry pad"
+      onSubmit={(e) => {
+        e.preventDefault();
+        submit();
+      }}
+    >
+      <div class="pad-display">
+        <label for="value-input" class="sr-only">
+          {censored ? 'Reporting limit (result below it)' : 'Value'}
+          {props.unit ? ` in ${props.unit}` : ''}
+        </label>
+        <div class="display-row">
+          {censored && <span class="rl-mark">&lt;</span>}
+          <input
+            id="value-input"
+            class="display"
+            inputMode="none"
+            autoComplete="off"
+            value={text}
+            disabled={props.disabled}
+            onInput={(e) => {
+              setMsg(null);
+              setText((e.currentTarget as HTMLInputElement).value);
+            }}
+          />
+          <span class="unit">{props.unit}</span>
+        </div>
+      </div>
+      {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-measurement" />}
+      <PadMessage msg={msg} />
+      <div class="keys">
+        {['7', '8', '9'].map((k) => (
+          <Key key={k} label={k} onPress={() => type(k)} disabled={off} />
+        ))}
+        <Key
+          label="⌫"
+          aria="Delete last character"
+          onPress={() => setText((t) => t.slice(0, -1))}
+          disabled={off}
+        />
+        {['4', '5', '6'].map((k) => (
+          <Key key={k} label={k} onPress={() => type(k)} disabled={off} />
+        ))}
+        <Key label="," aria="Decimal comma" onPress={() => type(',')} disabled={off} />
+        {['1', '2', '3'].map((k) => (
+          <Key key={k} label={k} onPress={() => type(k)} disabled={off} />
+        ))}
+        <Key
+          label="−"
+          aria="Minus sign"
+          onPress={() => setText((t) => (t.startsWith('-') ? t.slice(1) : `-${t}`))}
+          disabled={off}
+        />
+        <button
+          type="button"
+          class={`key small ${censored ? 'on' : ''}`}
+          aria-pressed={censored}
+          disabled={off}
+          onClick={toggleRl}
+        >
+          below RL
+        </button>
+        <Key label="0" onPress={() => type('0')} disabled={off} cls="wide" />
+        <NoteToggle
+          open={n.open}
+          toggle={() => n.setOpen(!n.open)}
+          disabled={off}
+          has={n.note.trim() !== ''}
+        />
+      </div>
+      <div class="save-row">
+        {props.undo}
+        <button type="submit" class="save" disabled={off}>
+          {props.disabled ? 'Loading…' : busy ? 'Saving…' : 'Save'}
+        </button>
+      </div>
+    </form>
+  );
+}
+
+export function CountPad(props: PadProps) {
+  const [text, setText] = useState('0');
+  const n = useNote();
+  const dirty = (text !== '0' && text !== '') || n.note.trim() !== '';
+  const { msg, setMsg, busy, save } = useSaver(props, 'count', dirty);
+  const off = props.disabled || busy;
+  const parsed = parseCount(text);
+  const step = (d: number) => {
+    setMsg(null);
+    const cur = parsed.ok ? parsed.value : 0;
+    setText(String(Math.max(0, cur + d)));
+  };
+  const submit = () => {
+    const p = parseCount(text, 'Count');
+    void save(
+      p.ok ? { value: p.value } : { error: p.message },
+      n.note,
+      () => {
+        setText('0');
+        n.setNote('');
+        n.setOpen(false);
+      },
+      `${text.trim()} in the plot`,
+    );
+  };
+  return (
+    <form
+      class="pad"
+      aria-label="Entry pad"
+      onSubmit={(e) => {
+        e.preventDefault();
+        submit();
+      }}
+    >
+      <div class="pad-display">
+        <label for="count-input" class="sr-only">
+          Count in this plot
+        </label>
+        <div class="display-row">
+          <input
+            id="count-input"
+            class="display"
+            inputMode="numeric"
+            autoComplete="off"
+            value={text}
+            disabled={props.disabled}
+            onFocus={(e) => (e.currentTarget as HTMLInputElement).select()}
+            onInput={(e) => {
+              setMsg(null);
+              setText((e.currentTarget as HTMLInputElement).value);
+            }}
+          />
+          <span class="unit">per plot</span>
+        </div>
+      </div>
+      {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-count" />}
+      <PadMessage msg={msg} />
+      <div class="counter">
+        <button
+          type="button"
+          class="key minus"
+          aria-label="Minus one"
+          disabled={off}
+          onClick={() => step(-1)}
+        >
+          −1
+        </button>
+        <button type="button" class="key plus" aria-label="Plus one" disabled={off} onClick={() => step(1)}>
+          +1
+        </button>
+      </div>
+      <div class="row2">
+        <button type="button" class="key small" disabled={off} onClick={() => setText('0')}>
+          Zero
+        </button>
+        <NoteToggle
+          open={n.open}
+          toggle={() => n.setOpen(!n.open)}
+          disabled={off}
+          has={n.note.trim() !== ''}
+        />
+      </div>
+      <button type="submit" class="save" disabled={off}>
+        {props.disabled ? 'Loading…' : busy ? 'Saving…' : `Save plot: ${parsed.ok ? parsed.value : text}`}
+      </button>
+    </form>
+  );
+}
+
+export function PassFailPad(props: PadProps & { outcome: string }) {
+  const n = useNote();
+  const { msg, busy, save } = useSaver(props, 'pass-fail', n.note.trim() !== '');
+  const off = props.disabled || busy;
+  const press = (value: 0 | 1) =>
+    save(
+      { value },
+      n.note,
+      () => {
+        n.setNote('');
+        n.setOpen(false);
+      },
+      value ? props.outcome : `no ${props.outcome}`,
+    );
+  return (
+    <fieldset class="pad">
+      <legend class="sr-only">Entry pad</legend>
+      {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-pf" />}
+      <PadMessage msg={msg} />
+      <p class="pad-hint">Each tap saves one item.</p>
+      <div class="pf">
+        <PfButton cls="yes" onPress={() => press(1)} disabled={off} mark="✕">
+          {props.outcome}
+        </PfButton>
+        <PfButton cls="no" onPress={() => press(0)} disabled={off} mark="✓">
+          no {props.outcome}
+        </PfButton>
+      </div>
+      <div class="row2">
+        <NoteToggle
+          open={n.open}
+          toggle={() => n.setOpen(!n.open)}
+          disabled={off}
+          has={n.note.trim() !== ''}
+        />
+      </div>
+    </fieldset>
+  );
+}
+
+function PfButton(props: {
+  cls: string;
+  onPress(): void;
+  disabled: boolean;
+  mark: string;
+  children: ComponentChildren;
+}) {
+  return (
+    <button type="button" class={`pf-btn ${props.cls}`} disabled={props.disabled} onClick={props.onPress}>
+      <span class="mark" aria-hidden="true">
+        {props.mark}
+      </span>
+      <span>{props.children}</span>
+    </button>
+  );
+}

@@ -1,0 +1,539 @@
+/**
+ * New study: one scrolling form with sensible defaults and plain-language help beside each choice,
+ * ending with the cautions acknowledgement. Duplicate copies a setup for the next site; "change" makes a
+ * new version linked to the old study (a saved study's setup is never edited).
+ */
+import type { ComponentChildren } from 'preact';
+import { useEffect, useState } from 'preact/hooks';
+import type { DataKind, RuleName, StudySetup, Target } from '../../core.ts';
+import { formatStrata } from '../../core.ts';
+import { strataFromFields } from '../../design/strata-setup.tsx';
+import { parseMeasurement } from '../../input/parse.ts';
+import { device } from '../../state/app-state.ts';
+import type { StoredStudy } from '../../storage/schema.ts';
+import { createStudy, getStudy } from '../../storage/studies.ts';
+import { CAUTIONS } from '../cautions.ts';
+import { TopBar } from '../components/chrome.tsx';
+import { go, href } from '../router.ts';
+
+type TargetKind = Target['kind'];
+interface Form {
+  name: string;
+  kind: DataKind;
+  unit: string;
+  reportingLimit: string;
+  plotArea: string;
+  plotAreaUnit: string;
+  outcome: string;
+  targetKind: TargetKind;
+  targetValue: string;
+  limitSource: string;
+  limitDate: string;
+  level: string;
+  customLevel: string;
+  rule: RuleName;
+  sprtAlpha: string;
+  sprtBeta: string;
+  sprtLow: string;
+  sprtHigh: string;
+  population: string;
+  min: string;
+  max: string;
+  nbK: string;
+  taylorA: string;
+  taylorB: string;
+  /** Strata as name:weight pairs and efforts per entry (web/design, issue 7). */
+  strata: string;
+  strataCosts: string;
+  ack: boolean;
+}
+
+const EMPTY: Form = {
+  name: '',
+  kind: 'measurement',
+  unit: '',
+  reportingLimit: '',
+  plotArea: '1',
+  plotAreaUnit: 'm2',
+  outcome: '',
+  targetKind: 'margin',
+  targetValue: '',
+  limitSource: '',
+  limitDate: '',
+  level: '0.95',
+  customLevel: '',
+  rule: 'standard',
+  sprtAlpha: '0.05',
+  sprtBeta: '0.1',
+  sprtLow: '',
+  sprtHigh: '',
+  population: '',
+  min: '10',
+  max: '',
+  nbK: '',
+  taylorA: '',
+  taylorB: '',
+  strata: '',
+  strataCosts: '',
+  ack: false,
+};
+
+const pctKinds = (f: Form) =>
+  f.kind === 'pass-fail' && (f.targetKind === 'margin' || f.targetKind === 'limit');
+const str = (x: number | undefined, k = 1) =>
+  x === undefined ? '' : String(Number((x * k).toPrecision(12)));
+
+function fromStudy(s: StoredStudy, mode: 'duplicate' | 'change'): Form {
+  const st = s.setup;
+  const t = st.target;
+  const pct = st.kind === 'pass-fail' && (t?.kind === 'margin' || t?.kind === 'limit') ? 100 : 1;
+  const relK = t?.kind === 'relative' ? 100 : pct;
+  const lv = String(st.level);
+  return {
+    ...EMPTY,
+    name: mode === 'change' ? s.name : `${s.name} (copy)`,
+    kind: st.kind,
+    unit: st.unit && st.kind === 'measurement' ? st.unit : '',
+    reportingLimit: str(st.reportingLimit),
+    plotArea: str(st.plotArea) || '1',
+    plotAreaUnit: st.plotAreaUnit ?? 'm2',
+    outcome: st.outcomeName ?? '',
+    targetKind: t?.kind ?? 'margin',
+    targetValue: str(t?.value, relK),
+    limitSource: t?.kind === 'limit' ? (t.source ?? '') : '',
+    limitDate: t?.kind === 'limit' ? (t.date ?? '') : '',
+    level: ['0.8', '0.9', '0.95', '0.99'].includes(lv) ? lv : 'custom',
+    customLevel: ['0.8', '0.9', '0.95', '0.99'].includes(lv) ? '' : str(st.level, 100),
+    rule: st.rule,
+    sprtAlpha: str(st.sprt?.alpha) || '0.05',
+    sprtBeta: str(st.sprt?.beta) || '0.1',
+    sprtLow: str(st.sprt?.lowerBound, pct),
+    sprtHigh: str(st.sprt?.upperBound, pct),
+    population: str(st.population),
+    min: String(st.min),
+    max: str(st.max),
+    nbK: str(st.planning?.negBinomialK),
+    taylorA: str(st.planning?.taylorA),
+    taylorB: str(st.planning?.taylorB),
+    strata: st.strata ? formatStrata(st.strata).strata : '',
+    strataCosts: st.strata ? (formatStrata(st.strata).costs ?? '') : '',
+  };
+}
+
+type Errors = Partial<Record<keyof Form, string>>;
+
+/** Turns the form into a setup, or the list of what is wrong, field by field. */
+export function buildSetup(f: Form): { setup: StudySetup; name: string } | { errors: Errors } {
+  const e: Errors = {};
+  const num = (
+    key: keyof Form,
+    label: string,
+    opts: { min?: number; max?: number; int?: boolean; optional?: boolean } = {},
+  ) => {
+    const raw = String(f[key]);
+    if (raw.trim() === '') {
+      if (!opts.optional) e[key] = `${label}: required.`;
+      return undefined;
+    }
+    const p = parseMeasurement(raw, label);
+    if (!p.ok) {
+      e[key] = p.message;
+      return undefined;
+    }
+    if (opts.int && !Number.isInteger(p.value)) e[key] = `${label}: “${raw}” must be a whole number.`;
+    else if (opts.min !== undefined && p.value < opts.min) e[key] = `${label}: must be at least ${opts.min}.`;
+    else if (opts.max !== undefined && p.value > opts.max) e[key] = `${label}: must be at most ${opts.max}.`;
+    return p.value;
+  };
+  const name = f.name.trim();
+  if (!name) e.name = 'Name: required (e.g. the site and the date).';
+  else if (name.length > 120) e.name = `Name: ${name.length} characters; at most 120.`;
+  const pct = pctKinds(f) ? 100 : 1;
+  const setup: StudySetup = {
+    kind: f.kind,
+    level: 0.95,
+    sided: 'two',
+    rule: f.rule,
+    min: 10,
+  };
+  if (f.kind === 'measurement') {
+    if (f.unit.trim()) setup.unit = f.unit.trim();
+    else e.unit = 'Unit: required (e.g. mg/kg, µg/L, cm).';
+    const rl = num('reportingLimit', 'Reporting limit', { min: 0, optional: true });
+    if (rl !== undefined) setup.reportingLimit = rl;
+  } else if (f.kind === 'count') {
+    setup.unit = '1';
+    const a = num('plotArea', 'Plot area', { min: 1e-9 });
+    if (a !== undefined) setup.plotArea = a;
+    setup.plotAreaUnit = f.plotAreaUnit.trim() || 'm2';
+    if (f.outcome.trim()) setup.outcomeName = f.outcome.trim();
+  } else {
+    if (f.outcome.trim()) setup.outcomeName = f.outcome.trim();
+    else e.outcome = 'Counted outcome: required (e.g. defect, leak, missing label).';
+  }
+  const tv = num('targetValue', 'Target value', { min: f.targetKind === 'limit' ? -1e12 : 1e-12 });
+  if (tv !== undefined) {
+    if (f.targetKind === 'limit') {
+      const source = f.limitSource.trim();
+      const date = f.limitDate.trim();
+      if (!source) e.limitSource = 'Limit source: required (the regulation, plan or client that sets it).';
+      if (!/^\d{4}-\d{2}-\d{2}$/.test(date))
+        e.limitDate = 'Limit date: required, as a date (the version you apply).';
+      if (pct === 100 && !(tv > 0 && tv < 100)) e.targetValue = 'Target value: a rate between 0 and 100 %.';
+      setup.target = { kind: 'limit', value: tv / pct, source, date };
+    } else if (f.targetKind === 'relative') setup.target = { kind: 'relative', value: tv / 100 };
+    else setup.target = { kind: f.targetKind, value: tv / pct };
+  }
+  const level =
+    f.level === 'custom'
+      ? (num('customLevel', 'Confidence level', { min: 50, max: 99.99 }) ?? 95) / 100
+      : Number(f.level);
+  setup.level = level;
+  if (f.rule === 'sprt') {
+    if (f.targetKind !== 'limit') e.rule = 'Limit decision: needs a limit target.';
+    const alpha = num('sprtAlpha', 'SPRT α', { min: 0.0001, max: 0.5 });
+    const beta = num('sprtBeta', 'SPRT β', { min: 0.0001, max: 0.5 });
+    const lo = num('sprtLow', 'Lower edge of the indifference zone');
+    const hi = num('sprtHigh', 'Upper edge of the indifference zone');
+    if (
+      lo !== undefined &&
+      hi !== undefined &&
+      tv !== undefined &&
+      !(lo / pct < tv / pct && tv / pct < hi / pct)
+    ) {
+      e.sprtHigh = 'Indifference zone: the lower edge must be below the limit and the upper edge above it.';
+    }
+    if (alpha !== undefined && beta !== undefined && lo !== undefined && hi !== undefined) {
+      setup.sprt = { alpha, beta, lowerBound: lo / pct, upperBound: hi / pct };
+    }
+  }
+  const pop = num('population', 'Lot or population size', { min: 1, int: true, optional: true });
+  if (pop !== undefined) setup.population = pop;
+  setup.min = num('min', 'Minimum before any verdict', { min: 2, max: 10000, int: true }) ?? 10;
+  const max = num('max', 'Planned maximum', { min: 2, int: true, optional: true });
+  if (max !== undefined) {
+    if (max < setup.min) e.max = 'Planned maximum: must not be below the minimum.';
+    setup.max = max;
+  }
+  if (f.kind === 'count') {
+    const planning: NonNullable<StudySetup['planning']> = {};
+    const k = num('nbK', 'Negative binomial k', { min: 1e-6, optional: true });
+    const ta = num('taylorA', 'Taylor a', { min: 1e-9, optional: true });
+    const tb = num('taylorB', 'Taylor b', { min: 0, max: 5, optional: true });
+    if (k !== undefined) planning.negBinomialK = k;
+    if ((ta === undefined) !== (tb === undefined))
+      e.taylorB = 'Taylor’s power law: give both a and b, or neither.';
+    if (ta !== undefined && tb !== undefined) {
+      planning.taylorA = ta;
+      planning.taylorB = tb;
+    }
+    if (Object.keys(planning).length) setup.planning = planning;
+  }
+  if (!f.ack) e.ack = 'Cautions: read them and tick the box to start.';
+  const strata = strataFromFields({ strata: f.strata, costs: f.strataCosts });
+  if ('problem' in strata) e.strata = strata.problem;
+  else if (strata.strata) setup.strata = strata.strata;
+  return Object.keys(e).length ? { errors: e } : { setup, name };
+}
+
+function Help(props: { children: ComponentChildren }) {
+  return <p class="help">{props.children}</p>;
+}
+
+export function NewStudyScreen(props: { from?: string; mode?: 'duplicate' | 'change' }) {
+  const [f, setF] = useState<Form>(EMPTY);
+  const [old, setOld] = useState<StoredStudy | null>(null);
+  const [errors, setErrors] = useState<Errors>({});
+  const [saveError, setSaveError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  useEffect(() => {
+    if (!props.from) return;
+    void getStudy(props.from).then((s) => {
+      if (!s) return;
+      setOld(s);
+      setF(fromStudy(s, props.mode ?? 'duplicate'));
+    });
+  }, [props.from, props.mode]);
+  const set = <K extends keyof Form>(k: K, v: Form[K]) => setF((x) => ({ ...x, [k]: v }));
+  const pct = pctKinds(f);
+  const unit = f.kind === 'measurement' ? f.unit || 'units' : f.kind === 'count' ? 'per plot' : '%';
+
+  const text = (
+    k: keyof Form,
+    label: string,
+    o: {
+      mode?: 'decimal' | 'numeric' | 'text';
+      type?: 'text' | 'date';
+      help?: ComponentChildren;
+      suffix?: string;
+    } = {},
+  ) => (
+    <div class={`field ${errors[k] ? 'invalid' : ''}`}>
+      <label for={`f-${k}`}>{label}</label>
+      <div class="input-row">
+        <input
+          id={`f-${k}`}
+          type={(o.type ?? 'text') as 'text'}
+          inputMode={o.mode ?? 'text'}
+          autoComplete="off"
+          value={String(f[k])}
+          aria-invalid={errors[k] ? 'true' : undefined}
+          aria-describedby={errors[k] ? `e-${k}` : undefined}
+          onInput={(e) => set(k, (e.currentTarget as HTMLInputElement).value as never)}
+        />
+        {o.suffix && <span class="suffix">{o.suffix}</span>}
+      </div>
+      {errors[k] && (
+        <p class="field-error" id={`e-${k}`}>
+          {errors[k]}
+        </p>
+      )}
+      {o.help && <Help>{o.help}</Help>}
+    </div>
+  );
+  const radios = <K extends 'kind' | 'targetKind' | 'level' | 'rule'>(
+    k: K,
+    legend: string,
+    options: [Form[K], string, string][],
+  ) => (
+    <fieldset class={`choices ${errors[k] ? 'invalid' : ''}`}>
+      <legend>{legend}</legend>
+      {options.map(([v, label, help]) => (
+        <label key={String(v)} class="choice">
+          <input type="radio" name={k} checked={f[k] === v} onChange={() => set(k, v)} />
+          <span>
+            <strong>{label}</strong>
+            {help && <span class="help">{help}</span>}
+          </span>
+        </label>
+      ))}
+      {errors[k] && <p class="field-error">{errors[k]}</p>}
+    </fieldset>
+  );
+
+  async function submit(e: Event) {
+    e.preventDefault();
+    setSaveError(null);
+    const r = buildSetup(f);
+    if ('errors' in r) {
+      setErrors(r.errors);
+      const first = Object.keys(r.errors)[0];
+      document.getElementById(`f-${first}`)?.focus();
+      return;
+    }
+    setErrors({});
+    setBusy(true);
+    try {
+      const study = await createStudy(
+        {
+          name: r.name,
+          setup: r.setup,
+          ...(props.mode === 'change' && old ? { supersedes: old.id } : {}),
+        },
+        device.get(),
+      );
+      go(href.field(study.id));
+    } catch (err) {
+      setSaveError((err as Error).message);
+      setBusy(false);
+    }
+  }
+  const errorList = Object.values(errors);
+  return (
+    <div class="screen new-screen">
+      <TopBar
+        title={props.mode === 'change' ? 'Change setup' : props.from ? 'Duplicate setup' : 'New study'}
+        back={{ href: href.studies(), label: 'Studies' }}
+      />
+      {old && props.mode === 'change' && (
+        <p class="note-box">
+          This starts version {old.version + 1} as a new study linked to “{old.name}”. The old study keeps its
+          entries and its setup.
+        </p>
+      )}
+      <form class="stack form" onSubmit={submit} noValidate>
+        {text('name', 'Study name', {
+          help: 'Site, unit or lot, and the date — as you would write it on the sample bag.',
+        })}
+        {radios('kind', 'Data kind', [
+          [
+            'measurement',
+            'Measurement',
+            'A number with a unit per sample (a concentration, a length, a reading).',
+          ],
+          [
+            'count',
+            'Count per plot',
+            'A whole number per plot, quadrat, trap or transect section; zero counts too.',
+          ],
+          [
+            'pass-fail',
+            'Pass/fail per item',
+            'Each item either has the outcome you count (e.g. a defect) or not.',
+          ],
+        ])}
+        {f.kind === 'measurement' &&
+          text('unit', 'Unit', { help: 'Kept with every value, e.g. mg/kg, µg/L, cm.' })}
+        {f.kind === 'measurement' &&
+          text('reportingLimit', 'Reporting limit (optional)', {
+            mode: 'decimal',
+            suffix: f.unit,
+            help: 'The laboratory’s limit; results below it are entered as “below RL”.',
+          })}
+        {f.kind === 'count' &&
+          text('plotArea', 'Plot area', {
+            mode: 'decimal',
+            help: 'The size of one plot; densities are per this area.',
+          })}
+        {f.kind === 'count' &&
+          text('plotAreaUnit', 'Plot area unit', { help: 'e.g. m2, ha, or “trap night”.' })}
+        {f.kind !== 'measurement' &&
+          text('outcome', f.kind === 'count' ? 'What you count (optional)' : 'Counted outcome', {
+            help:
+              f.kind === 'count'
+                ? 'e.g. seedlings, burrows, snails.'
+                : 'The result you count, e.g. “defect”. The other result is “no defect”.',
+          })}
+        {radios('targetKind', 'Target: when is it enough?', [
+          ['margin', 'Margin', `The interval is at most ± this much (${pct ? 'percentage points' : unit}).`],
+          ['relative', 'Relative', 'The interval is at most ± this % of the estimate.'],
+          [
+            'precision',
+            'Precision (SE/mean)',
+            'Standard error divided by the mean at most D — the ecologists’ convention (0.1 to 0.25).',
+          ],
+          [
+            'limit',
+            'Decide against a limit',
+            'Decide whether the mean or rate is below or above a limit you enter.',
+          ],
+        ])}
+        {text(
+          'targetValue',
+          f.targetKind === 'relative'
+            ? 'Target: ± % of the estimate'
+            : f.targetKind === 'precision'
+              ? 'Target D (SE/mean)'
+              : f.targetKind === 'limit'
+                ? 'Limit value'
+                : 'Target margin ±',
+          {
+            mode: 'decimal',
+            suffix: f.targetKind === 'relative' ? '%' : f.targetKind === 'precision' ? '' : pct ? '%' : unit,
+          },
+        )}
+        {f.targetKind === 'limit' &&
+          text('limitSource', 'Source of the limit', {
+            help: 'The regulation, permit, plan or client document. Limits are never built in.',
+          })}
+        {f.targetKind === 'limit' && text('limitDate', 'Date of that source', { type: 'date' })}
+        {radios('level', 'Confidence level', [
+          ['0.8', '80 %', 'Quick screening.'],
+          ['0.9', '90 %', ''],
+          ['0.95', '95 %', 'The usual choice.'],
+          ['0.99', '99 %', 'Needs many more observations.'],
+          ['custom', 'Other', ''],
+        ])}
+        {f.level === 'custom' && text('customLevel', 'Confidence level', { mode: 'decimal', suffix: '%' })}
+        {radios('rule', 'Stopping rule', [
+          [
+            'standard',
+            'Standard',
+            'Checks after every entry with a correction for looking often; its coverage is measured.',
+          ],
+          ['strict', 'Strict', 'Valid however often you look; usually needs more observations.'],
+          [
+            'sprt',
+            'Limit decision (SPRT)',
+            'Wald’s sequential test: stops as soon as the data show below or above the limit.',
+          ],
+        ])}
+        {f.rule === 'sprt' && (
+          <fieldset class="choices">
+            <legend>SPRT settings</legend>
+            {text('sprtAlpha', 'α: chance of calling “below” when it is above', { mode: 'decimal' })}
+            {text('sprtBeta', 'β: chance of calling “above” when it is below', { mode: 'decimal' })}
+            {text('sprtLow', 'Indifference zone from', { mode: 'decimal', suffix: pct ? '%' : unit })}
+            {text('sprtHigh', 'to', {
+              mode: 'decimal',
+              suffix: pct ? '%' : unit,
+              help: 'Values this close to the limit are too close to call.',
+            })}
+          </fieldset>
+        )}
+        {text('population', 'Lot or population size (optional)', {
+          mode: 'numeric',
+          help: 'For a finite lot, e.g. 400 items: fewer samples are needed when you sample a large part of it.',
+        })}
+        {text('min', 'Minimum before any verdict', {
+          mode: 'numeric',
+          help: 'No “enough” before this many entries (10 is a safe default).',
+        })}
+        {text('max', 'Planned maximum (optional)', {
+          mode: 'numeric',
+          help: 'From your plan or budget; you are warned when the projection goes beyond it.',
+        })}
+        {text('strata', 'Strata and weights (optional)', {
+          help: 'Habitats, exposure units or wings with their area share or size, e.g. “woodland:0.6, meadow:0.4”. The estimate becomes the stratified mean and the field screen says where the next entry helps most.',
+        })}
+        {f.strata.trim() !== '' &&
+          text('strataCosts', 'Effort per entry in each stratum (optional)', {
+            help: 'e.g. “woodland:5, meadow:2” (minutes): “where next” weighs the gain against the effort.',
+          })}
+        {f.kind === 'count' && (
+          <details class="choices">
+            <summary>Planning coefficients for counts (optional)</summary>
+            {text('nbK', 'Negative binomial k', {
+              mode: 'decimal',
+              help: 'Clumping from earlier surveys of this organism; smaller is more clumped.',
+            })}
+            {text('taylorA', 'Taylor’s power law a', { mode: 'decimal' })}
+            {text('taylorB', 'Taylor’s power law b', {
+              mode: 'decimal',
+              help: 'Variance = a · mean^b, from earlier surveys.',
+            })}
+          </details>
+        )}
+        <fieldset class={`cautions-ack ${errors.ack ? 'invalid' : ''}`}>
+          <legend>Cautions</legend>
+          <ul class="cautions">
+            {CAUTIONS.map((c) => (
+              <li key={c}>{c}</li>
+            ))}
+          </ul>
+          <label class="toggle">
+            <input
+              id="f-ack"
+              type="checkbox"
+              checked={f.ack}
+              onChange={(e) => set('ack', (e.currentTarget as HTMLInputElement).checked)}
+            />
+            <span>I have read the cautions</span>
+          </label>
+          {errors.ack && <p class="field-error">{errors.ack}</p>}
+        </fieldset>
+        {errorList.length > 0 && (
+          <div class="warn" role="alert">
+            <p>
+              Not started: {errorList.length === 1 ? 'one field needs' : `${errorList.length} fields need`}{' '}
+              attention.
+            </p>
+            <ul>
+              {errorList.map((m) => (
+                <li key={m}>{m}</li>
+              ))}
+            </ul>
+          </div>
+        )}
+        {saveError && (
+          <p class="warn" role="alert">
+            {saveError}
+          </p>
+        )}
+        <button type="submit" class="btn primary big" disabled={busy}>
+          Start the study
+        </button>
+      </form>
+    </div>
+  );
+}

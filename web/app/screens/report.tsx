@@ -1,0 +1,122 @@
+/** The report: summary, the method in plain words, the chart, warnings, cautions, and the export slot. */
+import { type StudyView, useStudy } from '../../state/use-study.ts';
+import { CAUTIONS } from '../cautions.ts';
+import { Chart } from '../components/chart.tsx';
+import { BackupLine, DemoLabel, StudyTabs, TopBar } from '../components/chrome.tsx';
+import { dateTimeText, kindText, levelText, ruleText, shownNumbers, targetText } from '../format.ts';
+import { href } from '../router.ts';
+import { reportSlots } from '../slots.ts';
+import { StudyGate } from './gate.tsx';
+
+export function ReportScreen({ id }: { id: string }) {
+  const view = useStudy(id);
+  return (
+    <StudyGate view={view} screen="report">
+      {() => <Report view={view} />}
+    </StudyGate>
+  );
+}
+
+function Report({ view }: { view: StudyView }) {
+  const session = view.session!;
+  const study = session.study;
+  const a = session.assessment;
+  const setup = study.setup;
+  const shown = shownNumbers(a, study);
+  const t = setup.target;
+  const what =
+    setup.kind === 'pass-fail'
+      ? `the proportion of items with “${setup.outcomeName ?? 'the outcome'}”`
+      : setup.kind === 'count'
+        ? 'the mean count per plot'
+        : 'the mean value';
+  return (
+    <div class="screen report-screen">
+      <TopBar title={study.name} back={{ href: href.studies(), label: 'Studies' }} />
+      <StudyTabs id={study.id} current="report" />
+      {study.demo && <DemoLabel />}
+      <section aria-labelledby="r-sum">
+        <h2 id="r-sum">Summary</h2>
+        <dl class="facts">
+          <dt>Verdict</dt>
+          <dd data-testid="report-verdict">{a.verdict.status}</dd>
+          <dt>Entries counted</dt>
+          <dd>
+            {a.n} ({session.voidOf.size} voided, kept in the log)
+          </dd>
+          <dt>Estimate</dt>
+          <dd>
+            {shown.estimate} {shown.unit}
+          </dd>
+          <dt>Interval</dt>
+          <dd>{shown.interval ?? 'none yet'}</dd>
+          <dt>Data</dt>
+          <dd>{kindText(study)}</dd>
+          <dt>Target</dt>
+          <dd>{targetText(t, study)}</dd>
+          <dt>Confidence</dt>
+          <dd>{levelText(setup.level)}</dd>
+          <dt>Stopping rule</dt>
+          <dd>{ruleText(setup.rule)}</dd>
+          {setup.population !== undefined && (
+            <>
+              <dt>Lot / population</dt>
+              <dd>{setup.population}</dd>
+            </>
+          )}
+          <dt>Setup</dt>
+          <dd>
+            version {study.version}, created {dateTimeText(study.createdAt)}
+            {study.supersedes ? ' (replaces an earlier setup)' : ''}
+          </dd>
+        </dl>
+        <BackupLine notExported={session.lastSeq - view.exported} />
+      </section>
+      <section aria-labelledby="r-method">
+        <h2 id="r-method">Method</h2>
+        <p class="method-statement">
+          After every entry the app recomputed {what} and its interval by {a.methodLabel}, from the {a.n}{' '}
+          entries that count (voided entries are left out). The target was {targetText(t, study)}, at{' '}
+          {levelText(setup.level)} confidence, with the {ruleText(setup.rule)} stopping rule; no verdict other
+          than “keep going” is given before {setup.min} entries or while the data have no spread. Current
+          verdict: {a.verdict.status} — {a.verdict.message}
+        </p>
+        {a.warnings.length > 0 && (
+          <ul class="warnings">
+            {a.warnings.map((w) => (
+              <li key={w}>{w}</li>
+            ))}
+          </ul>
+        )}
+      </section>
+      <section aria-labelledby="r-chart">
+        <h2 id="r-chart">Running interval</h2>
+        <Chart
+          series={session.series}
+          current={a}
+          target={t}
+          scale={setup.kind === 'pass-fail' ? 100 : 1}
+          label={`Chart of ${study.name}`}
+        />
+      </section>
+      <section aria-labelledby="r-cautions">
+        <h2 id="r-cautions">Cautions</h2>
+        <ul class="cautions">
+          {CAUTIONS.map((c) => (
+            <li key={c}>{c}</li>
+          ))}
+        </ul>
+      </section>
+      <section aria-labelledby="r-export" class="export-slot" data-slot="report-exports">
+        <h2 id="r-export">Hand over</h2>
+        {reportSlots.length === 0 ? (
+          <p class="sub">Exports are not part of this version yet. Keep the phone’s data until they are.</p>
+        ) : (
+          reportSlots.map((Slot, i) => (
+            <Slot key={i} study={study} records={session.records} lastSeq={session.lastSeq} />
+          ))
+        )}
+      </section>
+    </div>
+  );
+}

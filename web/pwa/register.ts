@@ -1,0 +1,27 @@
+/**
+ * Service-worker registration (production builds only). A new version never takes over by itself:
+ * when it waits, `updateWaiting` holds an accept function; the prompt shows it only while nothing is
+ * half-typed, and the page reloads only after the user accepted.
+ */
+import { Workbox } from 'workbox-window';
+import { offlineReady, updateWaiting } from '../state/app-state.ts';
+
+export function registerServiceWorker(): void {
+  if (!import.meta.env.PROD || !('serviceWorker' in navigator)) return;
+  const wb = new Workbox(`${import.meta.env.BASE_URL}sw.js`, { scope: import.meta.env.BASE_URL });
+  let accepted = false;
+  wb.addEventListener('waiting', () => {
+    updateWaiting.set(() => {
+      accepted = true;
+      wb.messageSkipWaiting();
+    });
+  });
+  wb.addEventListener('controlling', (e) => {
+    // Reload only when this page asked for the new version (never under someone mid-entry).
+    if (e.isUpdate && accepted) window.location.reload();
+  });
+  wb.addEventListener('installed', (e) => {
+    if (!e.isUpdate) offlineReady.set(true);
+  });
+  void wb.register();
+}

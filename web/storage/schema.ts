@@ -1,0 +1,58 @@
+/**
+ * The IndexedDB schema (typed for idb). Version 1's shape is frozen in SCHEMA-v1.md: a later version adds
+ * an `if (oldVersion < 2)` step in db.ts and keeps a fixture of v1 for the upgrade test.
+ *
+ * - `studies`: one record per study setup version. The setup is never edited once an observation exists
+ *   (`lockedAt`); a changed setup is a new record whose `supersedes` names the old one. Only the
+ *   housekeeping fields `lockedAt` and `archivedAt` are ever set on an existing record.
+ * - `observations`: append-only event log (entries and voids); never put over, never deleted.
+ * - `exports`: append-only log of hand-overs (what was exported up to which seq), for "not yet exported".
+ * - `meta`: small key/value facts about this installation (device id, first run, persistence answer).
+ */
+import type { DBSchema } from 'idb';
+import type { ObservationRecord, StudyRecord } from '../core.ts';
+
+export const DB_NAME = 'sure-enough';
+export const DB_VERSION = 1;
+
+/** A study as stored: the shared StudyRecord plus the app's housekeeping (all optional, additive). */
+export interface StoredStudy extends StudyRecord {
+  /** When the first observation was saved; from then on the setup is locked. */
+  lockedAt?: string;
+  /** Archived studies leave the main list; nothing is deleted. */
+  archivedAt?: string;
+  /** When the user acknowledged the cautions at setup. */
+  cautionsAcceptedAt?: string;
+  /** Device that created the study. */
+  device?: string;
+  /** Invented demonstration data (Open the demo), labelled as such everywhere. */
+  demo?: boolean;
+}
+
+export interface ExportRecord {
+  id: string;
+  studyId: string;
+  at: string;
+  /** Every observation record with seq ≤ uptoSeq was in this export. */
+  uptoSeq: number;
+  /** e.g. 'csv', 'bundle', 'geojson'. */
+  format: string;
+}
+
+export type MetaKey = 'device' | 'firstRunAt' | 'persist';
+export interface PersistAnswer {
+  at: string;
+  /** 'granted' | 'refused' | 'unsupported' */
+  answer: 'granted' | 'refused' | 'unsupported';
+}
+
+export interface SureEnoughDB extends DBSchema {
+  studies: { key: string; value: StoredStudy; indexes: { byCreatedAt: string } };
+  observations: {
+    key: string;
+    value: ObservationRecord;
+    indexes: { byStudySeq: [string, number]; byVoids: string };
+  };
+  exports: { key: string; value: ExportRecord; indexes: { byStudy: string } };
+  meta: { key: MetaKey; value: string | PersistAnswer };
+}
