@@ -1,8 +1,8 @@
 /**
  * The field screen's design piece, ready to mount: `useDesignEntry` keeps the stratum (and primary unit)
  * the next entries are filed under — the "where next" suggestion until the crew picks one — and tags each
- * new entry with them; `DesignBar` shows the strata panel for studies that declare strata (nothing
- * otherwise). Mounting needs two lines in the field screen: tag the entry in `save`, render the bar.
+ * new entry with them; `DesignBar` shows the strata panel for studies that declare strata, and otherwise
+ * a folded "primary unit" field (transects of quadrats, rooms) whose label is filed with each entry. Mounting needs two lines in the field screen: tag the entry in `save`, render the bar.
  */
 import { useState } from 'preact/hooks';
 import { StrataPanel } from './strata-panel.tsx';
@@ -33,7 +33,6 @@ export function useDesignEntry(study: StoredStudyLike, assessment: Assessment): 
     pick: setPicked,
     setUnit,
     tag(entry) {
-      if (!active) return entry;
       const out = { ...entry };
       if (stratum !== null) out.stratum = stratum;
       if (unit.trim() !== '') out.cluster = unit.trim();
@@ -67,7 +66,25 @@ export function DesignBar(props: {
   isVoided: (id: string) => boolean;
 }) {
   const { design } = props;
-  if (!design.active) return null;
+  if (!design.active)
+    return (
+      <details class="unit-details" data-testid="unit-details" open={design.unit !== ''}>
+        <summary>Primary unit (transect, room): {design.unit.trim() || 'none'}</summary>
+        <label>
+          Entries saved from now on belong to{' '}
+          <input
+            type="text"
+            value={design.unit}
+            placeholder="e.g. T3"
+            onInput={(e) => design.setUnit((e.currentTarget as HTMLInputElement).value)}
+          />
+        </label>
+        <p class="help">
+          With primary units the interval uses the units, not the entries, as replicates, and shows the design
+          effect.
+        </p>
+      </details>
+    );
   return (
     <StrataPanel
       setup={props.study.setup}
