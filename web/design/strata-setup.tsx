@@ -1,7 +1,8 @@
 /**
- * Setup-form piece: declare strata as `name:weight` pairs (area share, hectares or number of units) and,
- * optionally, the effort of one entry in each (`name:minutes`), with the parse problem shown in words.
- * Parsing is the core's parseStrata, the same syntax as the command line's --strata / --cost.
+ * Setup-form piece: the strata typed as `name:weight` pairs (area share, hectares or number of units) and,
+ * optionally, the effort of one entry in each (`name:minutes`), turned into the setup's strata or the
+ * problem in words. The New study form shows the two fields (web/app/screens/new-study.tsx) and calls
+ * this. Parsing is the core's parseStrata, the same syntax as the command line's --strata / --cost.
  */
 import type { StratumSetup } from '../core.ts';
 import { parseStrata } from '../core.ts';
@@ -19,45 +20,4 @@ export function strataFromFields(v: StrataFieldsValue): { strata?: StratumSetup[
   if (!r.ok) return { problem: `Strata: ${r.problem}.` };
   if (r.strata.length < 2) return { problem: 'Strata: declare at least two (or leave empty for none).' };
   return { strata: r.strata };
-}
-
-export function StrataFields(props: {
-  value: StrataFieldsValue;
-  onChange(v: StrataFieldsValue): void;
-  problem?: string | undefined;
-}) {
-  const { value } = props;
-  return (
-    <fieldset class="strata-fields">
-      <legend>Strata (optional)</legend>
-      <label>
-        Strata and weights, e.g. <code>woodland:0.6, meadow:0.4</code>
-        <input
-          type="text"
-          name="strata"
-          value={value.strata}
-          aria-invalid={props.problem ? true : undefined}
-          onInput={(e) => props.onChange({ ...value, strata: (e.currentTarget as HTMLInputElement).value })}
-        />
-      </label>
-      <label>
-        Effort per entry (optional), e.g. <code>woodland:5, meadow:2</code>
-        <input
-          type="text"
-          name="strataCosts"
-          value={value.costs}
-          onInput={(e) => props.onChange({ ...value, costs: (e.currentTarget as HTMLInputElement).value })}
-        />
-      </label>
-      {props.problem && (
-        <p class="error" role="alert">
-          {props.problem}
-        </p>
-      )}
-      <p class="help">
-        Weights are area shares or sizes; the estimate becomes the stratified mean and the field screen
-        suggests where the next entry helps most.
-      </p>
-    </fieldset>
-  );
 }
