@@ -38,11 +38,17 @@ export function quantileProbability(level: number, sided: Sided): number {
   return sided === 'two' ? 1 - (1 - level) / 2 : level;
 }
 
+const wordsCache = new Map<string, string>();
+
+/** "95 % two-sided", "90 % upper bound"… (memoised: it runs after every entry). */
 export function sidedWords(level: number, sided: Sided): string {
+  const key = `${level}|${sided}`;
+  const hit = wordsCache.get(key);
+  if (hit !== undefined) return hit;
   const pct = `${Number((level * 100).toFixed(4))} %`;
-  return sided === 'two'
-    ? `${pct} two-sided`
-    : sided === 'upper'
-      ? `${pct} upper bound`
-      : `${pct} lower bound`;
+  const words =
+    sided === 'two' ? `${pct} two-sided` : sided === 'upper' ? `${pct} upper bound` : `${pct} lower bound`;
+  if (wordsCache.size > 1000) wordsCache.clear();
+  wordsCache.set(key, words);
+  return words;
 }
