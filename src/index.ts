@@ -3,7 +3,6 @@
  */
 
 export { type AssessOptions, assess, assessSummary, checkTarget, DEFAULT_MIN, halfWidth } from './assess.ts';
-export * from './bundle/index.ts';
 export {
   assessDesign,
   clusterRatioMean,
@@ -18,7 +17,6 @@ export {
   whereNext,
 } from './design/index.ts';
 export { formatStrata, parseStrata } from './design/strata-spec.ts';
-export * from './export/index.ts';
 export type * from './model/records.ts';
 export type * from './model/types.ts';
 export { fixedPointSampleSize } from './plan/fixed-point-sample-size.ts';

@@ -4,14 +4,9 @@
 import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
 import { beforeEach, describe, expect, it } from 'vitest';
-import {
-  assess,
-  makeBundle,
-  type ObservationRecord,
-  pointsOf,
-  type StudySetup,
-  serializeBundle,
-} from '../../src/index.ts';
+import { assess } from '../../src/index.ts';
+import type { ObservationRecord, StudySetup } from '../../src/model/records.ts';
+import { makeBundle, pointsOf, serializeBundle } from '../../web/handover/core-handover.ts';
 import { buildExport } from '../../web/handover/files.ts';
 import { importBundleText } from '../../web/handover/import.ts';
 import { getDb, resetDbForTests } from '../../web/storage/db.ts';

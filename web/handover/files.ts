@@ -14,12 +14,12 @@ import {
   reportHtml,
   type StudyRecord,
   serializeBundle,
-} from '../core.ts';
+} from './core-handover.ts';
 import type { OutFile } from './deliver.ts';
 
 export type ExportFormat = 'bundle' | 'csv' | 'geojson' | 'dwc' | 'report';
 
-/** Formats that carry the complete event log: only these count as a backup ("not yet exported"). */
+/** Formats that carry the complete event log: only these count as a backup ("not yet exported"); panel.tsx keeps a copy. */
 export const BACKUP_FORMATS: readonly ExportFormat[] = ['bundle', 'csv'];
 
 export function fileStem(study: StudyRecord, now = new Date()): string {
@@ -93,3 +93,7 @@ export function buildExport(
       };
   }
 }
+
+export { collectorShares, likelyDuplicates } from './core-handover.ts';
+// One lazy chunk for all hand-over code (two chunks would push their shared modules into the shell).
+export { importBundleText } from './import.ts';

@@ -4,7 +4,7 @@
  */
 import { useState } from 'preact/hooks';
 import { href } from '../app/router.ts';
-import { type ImportOutcome, importBundleText } from './import.ts';
+import type { ImportOutcome } from './import.ts';
 
 export function ImportPanel() {
   const [busy, setBusy] = useState(false);
@@ -19,6 +19,8 @@ export function ImportPanel() {
     setOutcome(null);
     setError(null);
     try {
+      // validation and import code load on first use (not needed to record entries)
+      const { importBundleText } = await import('./files.ts');
       setOutcome(await importBundleText(await file.text()));
     } catch (err) {
       setError(`Nothing was imported: ${(err as Error).message}`);

@@ -11,6 +11,10 @@
  * - two voids of one entry cannot be stored (the `byVoids` index is unique): such an import is refused.
  * Likely duplicates (same label from two devices) and each collector's share are returned for display.
  */
+
+import { getDb, withWrite } from '../storage/db.ts';
+import type { StoredStudy } from '../storage/schema.ts';
+import { isoWithOffset } from '../storage/time.ts';
 import {
   type Bundle,
   type CollectorShare,
@@ -22,10 +26,7 @@ import {
   makeBundle,
   type ObservationRecord,
   parseBundle,
-} from '../core.ts';
-import { getDb, withWrite } from '../storage/db.ts';
-import type { StoredStudy } from '../storage/schema.ts';
-import { isoWithOffset } from '../storage/time.ts';
+} from './core-handover.ts';
 
 export type ImportOutcome =
   | {

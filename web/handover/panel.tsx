@@ -7,10 +7,15 @@
  */
 import { useEffect, useState } from 'preact/hooks';
 import type { ReportSlotProps } from '../app/slots.ts';
-import { collectorShares, likelyDuplicates } from '../core.ts';
 import { exportedUpTo, recordExport } from '../storage/exports.ts';
 import { deliver } from './deliver.ts';
-import { BACKUP_FORMATS, buildExport, type ExportFormat } from './files.ts';
+import type { ExportFormat } from './files.ts';
+
+/** Formats that carry the complete event log (kept in step with files.ts BACKUP_FORMATS). */
+const BACKUP: readonly ExportFormat[] = ['bundle', 'csv'];
+
+/** The export code is loaded on first use (it is not needed to record entries; keeps the shell small). */
+const loadFiles = () => import('./files.ts');
 
 const LABELS: Record<ExportFormat, string> = {
   bundle: 'Study bundle (backup, pooling)',
@@ -36,12 +41,21 @@ export function HandoverPanel({ study, records, lastSeq }: ReportSlotProps) {
     };
   }, [study.id]);
 
-  const shares = collectorShares(records);
-  const dups = likelyDuplicates(records);
+  const [lib, setLib] = useState<Awaited<ReturnType<typeof loadFiles>> | null>(null);
+  useEffect(() => {
+    let live = true;
+    loadFiles().then((m) => live && setLib(m));
+    return () => {
+      live = false;
+    };
+  }, []);
+  const shares = lib ? lib.collectorShares(records) : [];
+  const dups = lib ? lib.likelyDuplicates(records) : [];
   const pending = exported === null ? null : Math.max(0, lastSeq - exported);
 
   async function run(format: ExportFormat) {
     setStatus(null);
+    const { buildExport } = await loadFiles();
     const built = buildExport(format, study, records);
     if (!built.ok) {
       setStatus({ ok: false, text: built.message });
@@ -54,7 +68,7 @@ export function HandoverPanel({ study, records, lastSeq }: ReportSlotProps) {
         setStatus({ ok: false, text: 'Not exported: the share sheet was closed.' });
         return;
       }
-      if (BACKUP_FORMATS.includes(format)) {
+      if (BACKUP.includes(format)) {
         await recordExport(study.id, lastSeq, format);
         setExported(Math.max(exported ?? 0, lastSeq));
       }
@@ -69,13 +83,15 @@ export function HandoverPanel({ study, records, lastSeq }: ReportSlotProps) {
     }
   }
 
-  function openReport() {
+  async function openReport() {
+    // Open the window within the tap (popup blockers), fill it once the report is built.
+    const w = window.open('', '_blank');
+    const { buildExport } = await loadFiles();
     const built = buildExport('report', study, records);
     if (!built.ok) return;
     const url = URL.createObjectURL(new Blob([built.files[0]!.text], { type: 'text/html' }));
-    const w = window.open(url, '_blank', 'noopener');
-    if (!w)
-      setStatus({ ok: false, text: 'The browser blocked the report window; use "Report file" instead.' });
+    if (w) w.location.href = url;
+    else setStatus({ ok: false, text: 'The browser blocked the report window; use "Report file" instead.' });
     setTimeout(() => URL.revokeObjectURL(url), 60_000);
   }
 
@@ -101,7 +117,7 @@ export function HandoverPanel({ study, records, lastSeq }: ReportSlotProps) {
             {LABELS[f]}
           </button>
         ))}
-        <button type="button" class="btn" onClick={openReport} data-testid="open-report">
+        <button type="button" class="btn" onClick={() => void openReport()} data-testid="open-report">
           Open printable report
         </button>
       </div>
