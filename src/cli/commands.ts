@@ -6,6 +6,7 @@ import { helpText } from './help.ts';
 import type { ParsedArgs } from './io.ts';
 import { UsageError } from './io.ts';
 import * as merge from './merge.ts';
+import * as replay from './replay.ts';
 
 export interface Command {
   summary: string;
@@ -14,18 +15,9 @@ export interface Command {
   help?: string;
 }
 
-function pending(name: string): Command {
-  return {
-    summary: `${name} (in development)`,
-    run() {
-      throw new UsageError(`${name} is not available in this build yet`);
-    },
-  };
-}
-
 export const commands: Record<string, Command> = {
   assess,
-  replay: pending('replay'),
+  replay,
   bundle,
   export: exportCommand,
   merge,

@@ -46,6 +46,11 @@ export interface SprtModel {
   k?: number;
   /** σ of the values ('normal') or of their logarithms ('lognormal'). */
   sigma?: number;
+  /**
+   * A larger σ used only for the spacing of the lines (q), e.g. an upper confidence bound on σ from a
+   * pilot; the midline keeps `sigma`. Defaults to `sigma`.
+   */
+  sigmaForSpacing?: number;
 }
 
 export interface SprtLines {
@@ -91,9 +96,10 @@ export function sprtBoundaries(model: SprtModel): SprtLines {
       const sigma = model.sigma;
       if (!(sigma !== undefined && sigma > 0)) throw new RangeError('sprtBoundaries requires sigma > 0');
       const v = sigma * sigma;
+      const spacing = model.sigmaForSpacing ?? sigma;
       const mu0 = family === 'normal' ? t0 : Math.log(t0) - v / 2;
       const mu1 = family === 'normal' ? t1 : Math.log(t1) - v / 2;
-      q = (mu1 - mu0) / v;
+      q = (mu1 - mu0) / (spacing * spacing);
       slope = (mu0 + mu1) / 2;
       break;
     }

@@ -9,8 +9,9 @@
  *
  * For an analyst: family by data kind — pass/fail → Bernoulli on the number of counted outcomes; count
  * → Poisson on the total, or negative binomial (Waters 1955) when planning.negBinomialK is given;
- * measurement → normal on ln x with σ = the pilot's log SD (first `min` values) and θ the arithmetic
- * means (μᵢ = ln θᵢ − σ²/2), or normal on x itself when the study's method is `t`. Truncation at
+ * measurement → normal on ln x with σ = the log SD of all values so far (a pilot of `min` values
+ * first) and θ the arithmetic means (μᵢ = ln θᵢ − σ²/2); the lines are spaced with the 90 % upper
+ * confidence bound on σ, or normal on x itself when the study's method is `t`. Truncation at
  * maxN = sprt.maxN ?? setup.max ?? ⌈3 × the fixed-size equivalent⌉ (sprt-fixed-size.ts), deciding by
  * the midline Sₙ ≤ s·n → below (METHODS §4.6). The reported interval is the data kind's interval at the
  * nominal level (descriptive).
@@ -24,13 +25,18 @@
  * @example sprtRule(ctx, { ...setup, rule: 'sprt', sprt: { alpha: 0.05, beta: 0.1, lowerBound: 0.01, upperBound: 0.06 } })
  */
 import type { AnalysisSetup, VerdictStatus } from '../model/types.ts';
+import { cachedChiSquareQuantile } from '../stats/quantile-cache.ts';
 import { pilotStats } from './pilot-stats.ts';
 import type { RuleContext, RuleDecision } from './rule-context.ts';
 import { type SprtModel, sprtBoundaries } from './sprt-boundaries.ts';
 import { sprtFixedSize } from './sprt-fixed-size.ts';
 
 /** Builds the SPRT model of a study (σ from the pilot for measurements; null while it is missing). */
-export function sprtModelOf(setup: AnalysisSetup, values: readonly number[]): SprtModel | null {
+export function sprtModelOf(
+  setup: AnalysisSetup,
+  values: readonly number[],
+  running?: { n: number; sd: number | null },
+): SprtModel | null {
   const s = setup.sprt;
   if (!s) return null;
   const base = { theta0: s.lowerBound, theta1: s.upperBound, alpha: s.alpha, beta: s.beta };
@@ -43,9 +49,16 @@ export function sprtModelOf(setup: AnalysisSetup, values: readonly number[]): Sp
   if (values.length < m) return null;
   const log = setup.method !== 't';
   for (let i = 0; i < m; i++) if (log && !((values[i] as number) > 0)) return null;
-  const sigma = pilotStats(values, m, log).sd;
+  // σ from all values so far when the caller has it (the midline of a lognormal test depends on σ²,
+  // and a 10-value pilot leaves it too uncertain), else from the pilot.
+  const useRunning = running !== undefined && running.sd !== null && running.n >= m;
+  const sigma = useRunning ? (running.sd as number) : pilotStats(values, m, log).sd;
+  const df = (useRunning ? running.n : m) - 1;
   if (!(sigma > 0)) return null;
-  return { family: log ? 'lognormal' : 'normal', sigma, ...base };
+  // The lines are spaced with the one-sided 90 % upper confidence bound of σ,
+  // s·√(df/χ²₍0.10, df₎), the "pilot σ with a conservative inflation" of METHODS §4.6.
+  const sigmaForSpacing = sigma * Math.sqrt(df / cachedChiSquareQuantile(0.1, df));
+  return { family: log ? 'lognormal' : 'normal', sigma, sigmaForSpacing, ...base };
 }
 
 /** Truncation point of the test. */
@@ -56,7 +69,8 @@ export function sprtMaxN(setup: AnalysisSetup, model: SprtModel): number {
 export function sprtRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
   const label = "limit decision (Wald's sequential probability ratio test)";
   const nominal = () => ctx.intervalAt(setup.level, setup.sided);
-  const model = sprtModelOf(setup, ctx.values);
+  const log = setup.method !== 't';
+  const model = sprtModelOf(setup, ctx.values, { n: ctx.n, sd: log ? ctx.stats.logSd : ctx.stats.sd });
   if (model === null)
     return {
       status: 'keep going',

@@ -80,8 +80,20 @@ export function twoStagePlan(values: readonly number[], setup: AnalysisSetup): T
   } else if (target.kind === 'relative' && log) {
     const r = Math.log1p(target.value);
     const s2 = ps.sd * ps.sd;
-    total = k;
-    while (total < 1e7 && t * Math.sqrt(s2 / total + (s2 * s2) / (2 * (total - 1))) > r) total++;
+    // smallest n ≥ k with t·√(s²/n + s⁴/(2(n − 1))) ≤ r: the left side decreases in n, so bisect.
+    const ok = (nn: number) => t * Math.sqrt(s2 / nn + (s2 * s2) / (2 * (nn - 1))) <= r;
+    let lo = k - 1;
+    let hi = k;
+    while (!ok(hi) && hi < 1e12) {
+      lo = hi;
+      hi *= 2;
+    }
+    while (hi - lo > 1) {
+      const mid = Math.floor((lo + hi) / 2);
+      if (ok(mid)) hi = mid;
+      else lo = mid;
+    }
+    total = hi;
   } else if (target.kind === 'relative') {
     const d = target.value * Math.abs(ps.mean);
     if (!(d > 0)) return null;

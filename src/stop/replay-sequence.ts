@@ -1,0 +1,132 @@
+/**
+ * Replay one recorded or simulated sequence through a stopping rule — "where would the rule have
+ * stopped, and what would it have reported there?" (`sure-enough replay`, the coverage benchmark).
+ *
+ * Not a published method: the same per-entry path as the app (RunningSummary → the data kind's model
+ * and guards → decide), minus what only the screen needs. The projection of "how many more", the
+ * method labels and the details are skipped at every entry; at the stopping entry (or the last one) the
+ * full assessSummary of src/assess.ts is computed once, so the reported figures are exactly the app's.
+ * A test checks that the stopping entry equals the first entry at which assessSummary gives a verdict
+ * other than `keep going`.
+ *
+ * Preconditions: values are valid for the data kind (the caller validates input); setup as for assess.
+ * Returns: stoppedAt (1-based n, or null when the rule never stopped) and the estimate, bounds and verdict
+ * reported there (at the end of the sequence when it never stopped). Bounds are null when infinite
+ * (one-sided) or unavailable.
+ * Cost: O(1) per entry (O(min) for rules that read the pilot), no allocation proportional to n other than
+ * the values themselves.
+ *
+ * @example replaySequence([9.8, 10.1, …], setup) // { stoppedAt: 23, estimate: 10.02, lower: 9.6, upper: 10.4, verdict: 'enough' }
+ */
+import { assessSummary, checkTarget } from '../assess.ts';
+import type { AnalysisSetup, Sided, VerdictStatus } from '../model/types.ts';
+import { countModel } from '../stats/kinds/count.ts';
+import type { KindModel } from '../stats/kinds/kind-model.ts';
+import { measurementModel } from '../stats/kinds/measurement.ts';
+import { passFailModel } from '../stats/kinds/pass-fail.ts';
+import { RunningSummary } from '../stats/running-summary.ts';
+import { decide } from './index.ts';
+import type { RuleContext } from './rule-context.ts';
+
+export interface ReplayResult {
+  stoppedAt: number | null;
+  estimate: number | null;
+  lower: number | null;
+  upper: number | null;
+  verdict: VerdictStatus;
+  /** Confidence level of the reported interval (the rule's reported level). */
+  level: number;
+}
+
+function modelFor(summary: RunningSummary, setup: AnalysisSetup): KindModel {
+  switch (setup.kind) {
+    case 'measurement':
+      return measurementModel(summary, setup);
+    case 'count':
+      return countModel(summary, setup);
+    case 'pass-fail':
+      return passFailModel(summary, setup);
+  }
+}
+
+/** As assess.ts: a limit target with a two-sided setup checks the bound on the estimate's side. */
+function effectiveSided(setup: AnalysisSetup, estimate: number | null): Sided {
+  if (setup.target?.kind !== 'limit' || setup.sided !== 'two') return setup.sided;
+  return estimate !== null && estimate > setup.target.value ? 'lower' : 'upper';
+}
+
+/**
+ * A memo of pass/fail decisions shared across sequences with the same setup: every pass/fail rule
+ * (standard, naive, strict, sprt) depends only on (counted outcomes, items), so the decision at (x, n)
+ * is computed once. Create one per setup with `new Map()`.
+ */
+export type PassFailMemo = Map<number, boolean>;
+
+export function replaySequence(
+  values: readonly number[],
+  setup: AnalysisSetup,
+  memo?: PassFailMemo,
+): ReplayResult {
+  const summary = new RunningSummary();
+  const seen: number[] = [];
+  const target = setup.target;
+  const sidedSetups: Partial<Record<Sided, AnalysisSetup>> = {};
+  let stoppedAt: number | null = null;
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i] as number;
+    summary.add(v);
+    seen.push(v);
+    const n = summary.n;
+    if (target === undefined || n < setup.min) continue;
+    const key = memo !== undefined && setup.kind === 'pass-fail' ? summary.total * 4194304 + n : -1;
+    if (key >= 0) {
+      const hit = memo?.get(key);
+      if (hit === false) continue;
+      if (hit === true) {
+        stoppedAt = n;
+        break;
+      }
+    }
+    const model = modelFor(summary, setup);
+    if (model.guard !== null || model.intervalAt === null) {
+      if (key >= 0) memo?.set(key, false);
+      continue;
+    }
+    const sided = effectiveSided(setup, model.estimate);
+    let s = sidedSetups[sided];
+    if (s === undefined) {
+      s = sided === setup.sided ? setup : { ...setup, sided };
+      sidedSetups[sided] = s;
+    }
+    const ctx: RuleContext = {
+      kind: setup.kind,
+      n,
+      intervalAt: model.intervalAt,
+      check: (iv) => checkTarget(target, iv, sided),
+      stats: {
+        total: summary.total,
+        mean: summary.mean,
+        sd: summary.sd,
+        logMean: summary.positive === n ? summary.logMean : null,
+        logSd: summary.positive === n && n >= 2 ? summary.logSd : null,
+      },
+      values: seen,
+      verdictOnly: true,
+    };
+    const stops = decide(ctx, s).status !== 'keep going';
+    if (key >= 0) memo?.set(key, stops);
+    if (stops) {
+      stoppedAt = n;
+      break;
+    }
+  }
+  const a = assessSummary(summary, setup, seen, { projection: false });
+  return {
+    stoppedAt,
+    estimate: a.estimate,
+    lower: a.lower,
+    upper: a.upper,
+    verdict: a.verdict.status,
+    level: a.level,
+  };
+}
