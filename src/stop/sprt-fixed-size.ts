@@ -8,7 +8,7 @@
  *
  * Preconditions: as sprtBoundaries. Returns n (not rounded).
  *
- * @example sprtFixedSize({ family: 'poisson', theta0: 1, theta1: 2, alpha: 0.05, beta: 0.1 }) // ≈ 11.7
+ * @example sprtFixedSize({ family: "poisson", theta0: 1, theta1: 2, alpha: 0.05, beta: 0.1 }) // 11.95
  */
 import { cachedNormalQuantile } from '../stats/quantile-cache.ts';
 import { type SprtModel, sprtBoundaries } from './sprt-boundaries.ts';

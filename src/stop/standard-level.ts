@@ -9,7 +9,9 @@
  * within one percentage point in every benchmark situation with at least 25 planned observations.
  *
  * For an analyst: the internal tail probability is α_int = ρ_kind · α (α = 1 − level; for a two-sided
- * interval each tail gets α_int/2), with ρ_kind calibrated by the coverage benchmark
+ * interval each tail gets α_int/2; for log-scale measurements ρ = ρ_log·exp(−κ·s_y²) with s_y the SD of
+ * the logs so far, since the selection effect grows with the spread; for counts
+ * ρ = max(0.3, ρ_count·exp(−0.7·(I − 1)·min(1, 25/n))) with I = s²/m the dispersion index so far), with ρ_kind calibrated by the coverage benchmark
  * (test/bench/coverage.md: METHODS §7 grid, R = 20,000 per cell, common random numbers) as the largest
  * ρ (smallest cost) for which every cell with n* ≥ 25 covers ≥ nominal − 1 pp. The correction is of the
  * "naive rule at an inflated internal level" family of METHODS §4.8; its need follows from the
@@ -29,9 +31,9 @@ export type StandardGroup = 'measurement' | 'measurement-log' | 'count' | 'pass-
 
 /** ρ per group: internal α = ρ · nominal α. Values from test/bench/coverage.md (see there for the runs). */
 export const STANDARD_ALPHA_RATIO: Readonly<Record<StandardGroup, number>> = {
-  measurement: 0.8,
-  'measurement-log': 0.5,
-  count: 0.6,
+  measurement: 0.9,
+  'measurement-log': 0.75,
+  count: 0.9,
   'pass-fail': 0.9,
 };
 
@@ -41,8 +43,36 @@ export function standardGroup(setup: Pick<AnalysisSetup, 'kind' | 'method'>): St
   return setup.method === 'cox' || setup.method === 'land' ? 'measurement-log' : 'measurement';
 }
 
-export function standardLevel(setup: Pick<AnalysisSetup, 'kind' | 'method' | 'level'>): number {
+/**
+ * Log-scale measurements: the selection effect grows with the spread of the logs, so ρ shrinks with it:
+ * ρ = ρ_log · exp(−κ·s_y²), κ fitted to the calibration runs at CV 0.5, 1 and 2 (s_y² = ln(1 + CV²)).
+ */
+export const LOG_SPREAD_KAPPA = 0.32;
+/**
+ * Counts: clumped counts need more correction, so ρ shrinks with the dispersion index I = s²/m:
+ * ρ = max(COUNT_RHO_FLOOR, ρ_count · exp(−κ_c·(I − 1)·min(1, 25/n))) for I > 1 — the clumping penalty
+ * fades with n, because the deficit of a t interval on clumped counts is a small-sample effect.
+ */
+export const COUNT_REFERENCE_N = 25;
+export const COUNT_DISPERSION_KAPPA = 0.7;
+export const COUNT_RHO_FLOOR = 0.3;
+
+export function standardLevel(
+  setup: Pick<AnalysisSetup, 'kind' | 'method' | 'level'>,
+  logSd: number | null = null,
+  dispersionIndex: number | null = null,
+  n = COUNT_REFERENCE_N,
+): number {
   const { level } = setup;
   if (!(level > 0 && level < 1)) throw new RangeError('standardLevel requires 0 < level < 1');
-  return 1 - STANDARD_ALPHA_RATIO[standardGroup(setup)] * (1 - level);
+  const group = standardGroup(setup);
+  let rho = STANDARD_ALPHA_RATIO[group];
+  if (group === 'measurement-log' && logSd !== null && logSd > 0)
+    rho *= Math.exp(-LOG_SPREAD_KAPPA * logSd * logSd);
+  if (group === 'count' && dispersionIndex !== null && dispersionIndex > 1)
+    rho = Math.max(
+      COUNT_RHO_FLOOR,
+      rho * Math.exp(-COUNT_DISPERSION_KAPPA * (dispersionIndex - 1) * Math.min(1, COUNT_REFERENCE_N / n)),
+    );
+  return 1 - rho * (1 - level);
 }

@@ -12,7 +12,8 @@
  * with known Taylor or Iwao coefficients and a precision target, Green's or Kuno's stop line decides.
  *
  * For an analyst:
- *   level_int = 1 − ρ_kind·(1 − level)                         (standard-level.ts, ρ calibrated)
+ *   level_int = 1 − ρ·(1 − level), ρ per data kind (shrinking with the log spread for log-scale
+ *   measurements and with the dispersion index for counts; standard-level.ts, calibrated)
  *   stop at the first n ≥ m (guards passed) with I_n(level_int) meeting the target, where for counts
  *   the interval is widened about its estimate by √(1 + c/(n·s²)), c = 1 count unit — the Chow & Robbins
  *   (1965, Ann. Math. Stat. 36:457–462) floor s² + c/n, which prevents a stop on near-constant low counts.
@@ -48,7 +49,8 @@ function withCountFloor(interval: Interval, n: number, sd: number): Interval {
 }
 
 export function standardRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
-  const level = standardLevel(setup);
+  const dispersion = ctx.kind === 'count' && ctx.stats.mean > 0 ? ctx.stats.sd ** 2 / ctx.stats.mean : null;
+  const level = standardLevel(setup, ctx.stats.logSd, dispersion, ctx.n);
   let interval = ctx.intervalAt(level, setup.sided);
   if (ctx.kind === 'count') interval = withCountFloor(interval, ctx.n, ctx.stats.sd);
   const label = `standard (checked and shown at ${(level * 100).toFixed(1)} % to allow for looking after every entry)`;

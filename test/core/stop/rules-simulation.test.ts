@@ -1,0 +1,201 @@
+/**
+ * Small deterministic simulations (fixed seeds, a few hundred runs) of every stopping rule through the
+ * app's per-entry path: a rule must never stop before the minimum, never on zero spread, all-zero counts
+ * or one distinct value (measurements and counts), and the fast replay path must stop exactly where
+ * assessSummary first gives a verdict other than `keep going`. Evidence: the guards of the shared design
+ * (METHODS §1 design constants, §8 pitfall 1); no external numbers needed — these are invariants.
+ * Also the Green and Kuno stop-line values of the shared check values (seq-green-…, seq-kuno) [derived].
+ */
+import { describe, expect, it } from 'vitest';
+import { assessSummary } from '../../../src/assess.ts';
+import type { AnalysisSetup, RuleName } from '../../../src/model/types.ts';
+import { bernoulliVariate } from '../../../src/sim/bernoulli-variate.ts';
+import { lognormalVariate } from '../../../src/sim/lognormal-variate.ts';
+import { negativeBinomialVariate } from '../../../src/sim/negative-binomial-variate.ts';
+import { normalVariate } from '../../../src/sim/normal-variate.ts';
+import { createRng, type Rng } from '../../../src/sim/xoshiro128.ts';
+import { RunningSummary } from '../../../src/stats/running-summary.ts';
+import { greenStopLine } from '../../../src/stop/green-stop-line.ts';
+import { kunoStopLine } from '../../../src/stop/kuno-stop-line.ts';
+import { replaySequence } from '../../../src/stop/replay-sequence.ts';
+import { ruleWarnings } from '../../../src/stop/rule-warnings.ts';
+import { standardLevel } from '../../../src/stop/standard-level.ts';
+
+const RULES: RuleName[] = ['naive', 'standard', 'strict', 'sprt'];
+
+interface Case {
+  setup: AnalysisSetup;
+  draw: (g: Rng) => number;
+}
+const sprt = { alpha: 0.05, beta: 0.1 };
+const cases: Case[] = [
+  {
+    setup: {
+      kind: 'measurement',
+      level: 0.95,
+      sided: 'two',
+      rule: 'standard',
+      min: 10,
+      target: { kind: 'margin', value: 0.5 },
+      sprt: { ...sprt, lowerBound: 9.5, upperBound: 10.5 },
+    },
+    draw: (g) => normalVariate(g, 10, 1),
+  },
+  {
+    setup: {
+      kind: 'measurement',
+      level: 0.95,
+      sided: 'two',
+      rule: 'standard',
+      method: 'cox',
+      min: 12,
+      target: { kind: 'relative', value: 0.3 },
+      sprt: { ...sprt, lowerBound: 0.8, upperBound: 1.25 },
+    },
+    draw: (g) => lognormalVariate(g, 1, 1),
+  },
+  {
+    setup: {
+      kind: 'count',
+      level: 0.9,
+      sided: 'two',
+      rule: 'standard',
+      min: 10,
+      target: { kind: 'relative', value: 0.3 },
+      sprt: { ...sprt, lowerBound: 1.5, upperBound: 2.5 },
+    },
+    draw: (g) => negativeBinomialVariate(g, 2, 2),
+  },
+  {
+    setup: {
+      kind: 'pass-fail',
+      level: 0.95,
+      sided: 'two',
+      rule: 'standard',
+      min: 20,
+      target: { kind: 'margin', value: 0.08 },
+      sprt: { ...sprt, lowerBound: 0.1, upperBound: 0.25 },
+    },
+    draw: (g) => bernoulliVariate(g, 0.15),
+  },
+];
+
+function withRule(setup: AnalysisSetup, rule: RuleName): AnalysisSetup {
+  if (rule !== 'sprt') return { ...setup, rule };
+  const zone = setup.sprt as NonNullable<AnalysisSetup['sprt']>;
+  return { ...setup, rule, target: { kind: 'limit', value: (zone.lowerBound + zone.upperBound) / 2 } };
+}
+
+/** First n at which assessSummary (the app's full path) gives a verdict other than keep going. */
+function firstStopByAssess(values: number[], setup: AnalysisSetup): number | null {
+  const s = new RunningSummary();
+  const seen: number[] = [];
+  for (const v of values) {
+    s.add(v);
+    seen.push(v);
+    if (assessSummary(s, setup, seen, { projection: false }).verdict.status !== 'keep going') return s.n;
+  }
+  return null;
+}
+
+describe('every rule, simulated (fixed seeds)', () => {
+  for (const c of cases)
+    for (const rule of RULES) {
+      const setup = withRule(c.setup, rule);
+      it(`${c.setup.kind}${c.setup.method ? `/${c.setup.method}` : ''} ${rule}: never before the minimum; replay = app path`, () => {
+        const rng = createRng(777);
+        let stopped = 0;
+        for (let r = 0; r < 150; r++) {
+          const values = Array.from({ length: 400 }, () => c.draw(rng));
+          const fast = replaySequence(values, setup);
+          if (fast.stoppedAt !== null) {
+            stopped++;
+            expect(fast.stoppedAt).toBeGreaterThanOrEqual(setup.min);
+          }
+          if (r < 40) expect(fast.stoppedAt).toBe(firstStopByAssess(values, setup));
+        }
+        // the rule does stop on ordinary data (a test that cannot pass vacuously)
+        expect(stopped).toBeGreaterThan(100);
+      });
+    }
+});
+
+describe('no stop on zero spread, all-zero counts or one distinct value', () => {
+  for (const rule of RULES) {
+    it(`${rule}: constant measurements, all-zero counts, constant counts never stop`, () => {
+      const m = withRule(cases[0]!.setup, rule);
+      expect(replaySequence(new Array(300).fill(10), m).stoppedAt).toBeNull();
+      const c = withRule(cases[2]!.setup, rule);
+      expect(replaySequence(new Array(300).fill(0), c).stoppedAt).toBeNull();
+      expect(replaySequence(new Array(300).fill(3), c).stoppedAt).toBeNull();
+    });
+  }
+  it('a run of equal values followed by spread: no stop while the values are all equal', () => {
+    const rng = createRng(5);
+    for (const rule of RULES) {
+      const setup = withRule(cases[0]!.setup, rule);
+      for (let r = 0; r < 50; r++) {
+        const values = [
+          ...new Array(30).fill(10),
+          ...Array.from({ length: 200 }, () => normalVariate(rng, 10, 1)),
+        ];
+        const res = replaySequence(values, setup);
+        if (res.stoppedAt !== null) expect(res.stoppedAt).toBeGreaterThan(30);
+      }
+    }
+  });
+});
+
+describe('standard rule level', () => {
+  it('is above the nominal level and grows with the log spread and the dispersion', () => {
+    for (const level of [0.8, 0.9, 0.95, 0.99]) {
+      for (const kind of ['measurement', 'count', 'pass-fail'] as const)
+        expect(standardLevel({ kind, level })).toBeGreaterThan(level);
+      const cox = { kind: 'measurement' as const, method: 'cox' as const, level };
+      expect(standardLevel(cox, 1.2)).toBeGreaterThan(standardLevel(cox, 0.5));
+      expect(standardLevel({ kind: 'count', level }, null, 5)).toBeGreaterThan(
+        standardLevel({ kind: 'count', level }, null, 1),
+      );
+    }
+  });
+  it('warns for the regimes the benchmark found short', () => {
+    expect(
+      ruleWarnings({ kind: 'measurement', level: 0.95, sided: 'two', rule: 'standard', min: 10 }).join(' '),
+    ).toMatch(/skewed/);
+    expect(
+      ruleWarnings({ kind: 'count', level: 0.95, sided: 'two', rule: 'standard', min: 10 }).join(' '),
+    ).toMatch(/clumped/i);
+    expect(
+      ruleWarnings({ kind: 'measurement', level: 0.95, sided: 'two', rule: 'naive', min: 10 }).join(' '),
+    ).toMatch(/naive/);
+  });
+});
+
+describe('Green and Kuno stop lines (METHODS §4.5; check values seq-green-a2.0-b1.5-D0.25, seq-kuno) [derived]', () => {
+  it('Green a = 2, b = 1.5, D = 0.25 → 1024/n: 204.8, 102.4, 51.2, 20.48', () => {
+    const expected = [204.8, 102.4, 51.2, 20.48];
+    [5, 10, 20, 50].forEach((n, i) => {
+      const line = greenStopLine({ a: 2, b: 1.5, D: 0.25 }, n);
+      expect(Math.abs(line.total - expected[i]!)).toBeLessThan(1e-4);
+      expect(line.stopWhen).toBe('at-least');
+    });
+  });
+  it('Green with b > 2 reverses the inequality; b = 2 is the fixed size a/D²', () => {
+    // b = 2.5, a = 1, D = 0.2: T = (0.04)^{2} · n^{3} = 0.0016 n³ (derived from the formula)
+    const l = greenStopLine({ a: 1, b: 2.5, D: 0.2 }, 10);
+    expect(l.stopWhen).toBe('at-most');
+    expect(l.total).toBeCloseTo(1.6, 10);
+    expect(greenStopLine({ a: 2, b: 2, D: 0.25 }, 31).total).toBe(Number.POSITIVE_INFINITY);
+    expect(greenStopLine({ a: 2, b: 2, D: 0.25 }, 32).total).toBe(0);
+  });
+  it('Kuno α = 0.5, β = 1.3, D = 0.2 → 150, 60, 44.118; undefined for n ≤ (β−1)/D² = 7.5', () => {
+    const expected = [150, 60, 44.118];
+    [10, 20, 50].forEach((n, i) => {
+      expect(
+        Math.abs((kunoStopLine({ alpha: 0.5, beta: 1.3, D: 0.2 }, n) as number) - expected[i]!),
+      ).toBeLessThan(1e-3);
+    });
+    expect(kunoStopLine({ alpha: 0.5, beta: 1.3, D: 0.2 }, 7)).toBeNull();
+    expect(kunoStopLine({ alpha: 0.5, beta: 1.3, D: 0.2 }, 8)).not.toBeNull();
+  });
+});
