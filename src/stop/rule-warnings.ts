@@ -23,6 +23,10 @@ export function ruleWarnings(setup: AnalysisSetup): string[] {
     w.push(
       'A minimum below 10 observations makes early stops on a lucky run likely; 10 or more is recommended.',
     );
+  if (kind === 'measurement' && rule === 'standard' && (method === 'cox' || method === 'land'))
+    w.push(
+      'Very skewed values (spread about twice the mean) with a loose target: when only about 25 values are needed, the interval at the stop held the mean in about 93.7 % of simulated studies instead of 95 %.',
+    );
   if (
     kind === 'measurement' &&
     (rule === 'standard' || rule === 'naive') &&
@@ -34,9 +38,9 @@ export function ruleWarnings(setup: AnalysisSetup): string[] {
     );
   if (kind === 'count' && (rule === 'standard' || rule === 'naive')) {
     const k = setup.planning?.negBinomialK;
-    if (k === undefined || k < 1)
+    if (k === undefined || k <= 2)
       w.push(
-        'Strongly clumped counts (many empty plots and a few crowded ones, negative-binomial k below 1) with a loose target: the interval at the stop covers the mean less often than stated when fewer than about 50 plots are needed. Set a larger minimum (20–30) for such organisms.',
+        "Clumped counts (many empty plots and a few crowded ones, negative-binomial k of 2 or less) with a loose target: when only about 25 plots are needed, the '95 %' interval at the stop held the mean in about 93 % of simulated surveys (92.7 % at k = 0.5). Set a larger minimum (20–30) for such organisms, or give Taylor's or Iwao's coefficients and a precision target to use a stop line.",
       );
   }
   if (kind === 'pass-fail' && setup.min < 30 && (rule === 'standard' || rule === 'naive'))
@@ -55,7 +59,7 @@ export function ruleWarnings(setup: AnalysisSetup): string[] {
   }
   if (rule === 'sprt' && kind === 'measurement')
     w.push(
-      "The limit decision on measurements uses the pilot's spread as if it were known; its error rates can exceed the chosen ones when the pilot is small.",
+      'The limit decision on measurements uses the spread estimated from the values so far as if it were known; in simulations with 5 % and 10 % chosen risks it realised 1.7 % and 10.7 %, so the second risk can be slightly exceeded.',
     );
   if (rule === 'sprt' && kind === 'count' && setup.planning?.negBinomialK === undefined)
     w.push(

@@ -10,7 +10,7 @@
  *
  * For an analyst:
  *   measurement / count, target margin d: Stein (1945) two-stage, pilot m = setup.min (extended until the
- *     pilot SD is > 0), N = max(m, ⌊(t₍m−1₎ s_m/d)²⌋ + 1), report x̄_n ± t₍m−1₎ s_m/√n at n = N
+ *     pilot SD is > 0), N = max(m, ⌊(t₍m−1₎ s_m/d)²⌋ + 1), report x̄_N ± d at n = N
  *     (exact ≥ 1 − α for normal data; stein-two-stage.ts). Counts add the c/m floor (c = 1) to s_m².
  *   measurement / count, target relative r: the same two-stage plan with d = r·x̄_m (approximate); with the
  *     log-scale (Cox) method, N = smallest n with exp(t₍m−1₎·√(s_y²/n + s_y⁴/(2(n−1)))) − 1 ≤ r from the
@@ -170,7 +170,10 @@ export function strictRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision
   else if (setup.target.kind === 'precision') interval = nominal();
   else {
     const mean = ctx.stats.mean;
-    const h = (plan.quantile * plan.pilotSd) / Math.sqrt(ctx.n);
+    // Stein's interval x̄_N ± d (margin target): coverage ≥ 1 − α for normal data, since
+    // t₍m−1₎·s_m/√N ≤ d. For a relative target d = r·x̄_m (approximate).
+    const target = setup.target;
+    const h = target.kind === 'margin' ? target.value : target.value * Math.abs(plan.pilotMean);
     interval = {
       estimate: mean,
       lower: setup.sided === 'upper' ? Number.NEGATIVE_INFINITY : mean - h,
