@@ -89,10 +89,20 @@ export function HandoverPanel({ study, records, lastSeq }: ReportSlotProps) {
     const { buildExport } = await loadFiles();
     const built = buildExport('report', study, records);
     if (!built.ok) return;
-    const url = URL.createObjectURL(new Blob([built.files[0]!.text], { type: 'text/html' }));
-    if (w) w.location.href = url;
-    else setStatus({ ok: false, text: 'The browser blocked the report window; use "Report file" instead.' });
-    setTimeout(() => URL.revokeObjectURL(url), 60_000);
+    if (!w) {
+      setStatus({ ok: false, text: 'The browser blocked the report window; use "Report file" instead.' });
+      return;
+    }
+    // A window opened from this page (about:blank, blob:) inherits the app's Content Security Policy,
+    // which refuses inline <style>: the report's style sheet is applied through the CSSOM instead.
+    const html = built.files[0]!.text;
+    const css = /<style>([\s\S]*?)<\/style>/.exec(html)?.[1] ?? '';
+    w.document.open();
+    w.document.write(html.replace(/<style>[\s\S]*?<\/style>/, ''));
+    w.document.close();
+    const sheet = new (w as typeof window).CSSStyleSheet();
+    sheet.replaceSync(css);
+    w.document.adoptedStyleSheets = [sheet];
   }
 
   return (
