@@ -1,5 +1,6 @@
 /** Shared steps for the browser tests: waiting for the service worker, creating studies, reading the screen. */
 
+import { spawnSync } from 'node:child_process';
 import { mkdirSync } from 'node:fs';
 import { expect, type Page } from '@playwright/test';
 
@@ -64,4 +65,63 @@ export function parseInterval(text: string): [number, number] {
   const m = /(-?[\d.]+) to (-?[\d.]+)/.exec(text);
   if (!m) throw new Error(`no interval in “${text}”`);
   return [Number(m[1]), Number(m[2])];
+}
+
+/**
+ * The core's own assessment of a sequence, computed in Node by the command line built from src/
+ * (`npm run build:cli` → dist-cli/sure-enough.mjs; `npm test` builds it before the browser tests).
+ * Importing src/index.ts directly does not load under Playwright's ESM loader (jstat is a UMD module
+ * without named ESM exports), so the bundled command line is the way to run the same code in Node.
+ */
+export interface CoreAssessment {
+  n: number;
+  estimate: number | null;
+  lower: number | null;
+  upper: number | null;
+  verdict: string;
+  more: { likely: number; low: number; high: number; atLeast?: boolean } | null;
+  level: number;
+  methodLabel: string;
+}
+export function coreAssess(values: readonly number[], flags: string[]): CoreAssessment {
+  const r = spawnSync(process.execPath, ['dist-cli/sure-enough.mjs', 'assess', ...flags], {
+    input: `${values.join('\n')}\n`,
+    encoding: 'utf8',
+  });
+  if (r.status !== 0) throw new Error(`sure-enough assess failed: ${r.stderr}`);
+  return JSON.parse(r.stdout) as CoreAssessment;
+}
+
+/** The app's duration wording, restated here: seconds below 90 s, then minutes, then hours and minutes. */
+export function durationWords(ms: number): string {
+  const s = Math.max(1, Math.round(ms / 1000));
+  if (s < 90) return `${s} s`;
+  const min = Math.round(s / 60);
+  if (min < 60) return `${min} min`;
+  return min % 60 ? `${Math.floor(min / 60)} h ${min % 60} min` : `${min / 60} h`;
+}
+
+/** Checks the field screen against the core's assessment: verdict, n, estimate, interval, more. */
+export async function expectMatchesCore(
+  page: Page,
+  core: CoreAssessment,
+  paceMs: number | null,
+): Promise<void> {
+  await expect(page.getByTestId('verdict')).toHaveText(core.verdict);
+  await expect(page.getByTestId('n')).toHaveText(String(core.n));
+  const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(1e-12, Math.abs(b));
+  const est = Number(await page.getByTestId('estimate').getAttribute('data-value'));
+  expect(rel(est, core.estimate as number)).toBeLessThan(1e-9);
+  const iv = page.getByTestId('interval');
+  expect(rel(Number(await iv.getAttribute('data-lower')), core.lower as number)).toBeLessThan(1e-9);
+  expect(rel(Number(await iv.getAttribute('data-upper')), core.upper as number)).toBeLessThan(1e-9);
+  if (core.verdict === 'keep going' && core.more && !core.more.atLeast && core.more.likely > 0) {
+    const m = core.more;
+    const range = m.low === m.high ? '' : ` (likely ${m.low}–${m.high})`;
+    const pace = paceMs === null ? '' : `, about ${durationWords(m.likely * paceMs)} at your pace`;
+    await expect(page.getByTestId('more')).toHaveText(`about ${m.likely} more${range}${pace}`);
+    await expect(page.locator('.verdict .safety')).toHaveText(/^Statistical guidance, not an instruction/);
+  } else if (core.verdict !== 'keep going') {
+    await expect(page.getByTestId('more')).toHaveCount(0);
+  }
 }

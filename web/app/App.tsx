@@ -8,9 +8,10 @@ import { FieldScreen } from './screens/field.tsx';
 import { LogScreen } from './screens/log.tsx';
 import { NewStudyScreen } from './screens/new-study.tsx';
 import { ReportScreen } from './screens/report.tsx';
-import { DemoScreen, StudiesScreen } from './screens/studies.tsx';
+import { StudiesScreen } from './screens/studies.tsx';
+import { DemoScreen } from './screens/studies-demo.tsx';
 
-function Banners() {
+export function Banners() {
   const blocked = useStore(dbBlocked);
   const accept = useStore(updateWaiting);
   const typing = useStore(halfTyped);

@@ -34,7 +34,15 @@ export function shownNumbers(a: Assessment, study: StoredStudy): Shown {
   const pct = study.setup.kind === 'pass-fail';
   const k = pct ? 100 : 1;
   const half = a.lower !== null && a.upper !== null ? ((a.upper - a.lower) * k) / 2 : null;
-  const d = decimalsFor(half, pct ? 1 : 2);
+  let d = Math.max(decimalsFor(half, pct ? 1 : 2), pct ? 1 : 0);
+  // Near a limit, show enough decimals that a bound just below it does not read as equal to it.
+  const t = study.setup.target;
+  if (t?.kind === 'limit') {
+    for (const b of [a.lower, a.upper]) {
+      if (b === null || !Number.isFinite(b)) continue;
+      while (d < 6 && b !== t.value && fmt(b * k, d) === fmt(t.value * k, d)) d++;
+    }
+  }
   const unit = pct ? `% ${outcomeOf(study)}` : unitOf(study);
   if (a.estimate === null) return { estimate: '—', interval: null, unit };
   const est = fmt(a.estimate * k, d);

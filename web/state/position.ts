@@ -53,7 +53,7 @@ export function currentFix(): Position | undefined {
 export function positionText(p: PositionState): string {
   switch (p.state) {
     case 'off':
-      return 'position off';
+      return 'GPS off';
     case 'waiting':
       return 'no fix';
     case 'denied':
@@ -61,6 +61,6 @@ export function positionText(p: PositionState): string {
     case 'unavailable':
       return 'no fix (no GPS)';
     case 'fix':
-      return `fix ± ${Math.round(p.pos.accuracyM)} m`;
+      return `GPS ± ${Math.round(p.pos.accuracyM)} m`;
   }
 }

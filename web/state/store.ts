@@ -24,11 +24,12 @@ export function store<T>(initial: T): Store<T> {
   };
 }
 
+/** Subscribes a component to a store. Values are boxed: a stored function must not be taken for a state updater. */
 export function useStore<T>(s: Store<T>): T {
-  const [v, setV] = useState(s.get());
+  const [box, setBox] = useState(() => ({ v: s.get() }));
   useEffect(() => {
-    setV(s.get());
-    return s.subscribe(setV);
+    setBox({ v: s.get() });
+    return s.subscribe((v) => setBox({ v }));
   }, [s]);
-  return v;
+  return box.v;
 }

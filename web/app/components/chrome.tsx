@@ -35,7 +35,7 @@ export function TopBar(props: {
 export function DemoLabel() {
   return (
     <p class="demo-label" role="note">
-      Demo with invented data — not a real site.
+      Invented demo data, not a real site
     </p>
   );
 }

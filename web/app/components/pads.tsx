@@ -309,6 +309,7 @@ export function CountPad(props: PadProps) {
           disabled={off}
           has={n.note.trim() !== ''}
         />
+        {props.undo}
       </div>
       <button type="submit" class="save" disabled={off}>
         {props.disabled ? 'Loading…' : busy ? 'Saving…' : `Save plot: ${parsed.ok ? parsed.value : text}`}
@@ -352,6 +353,7 @@ export function PassFailPad(props: PadProps & { outcome: string }) {
           disabled={off}
           has={n.note.trim() !== ''}
         />
+        {props.undo}
       </div>
     </fieldset>
   );

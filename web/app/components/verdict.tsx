@@ -4,8 +4,7 @@ import { formatDuration } from '../../state/pace.ts';
 import type { StoredStudy } from '../../storage/schema.ts';
 import { shownNumbers } from '../format.ts';
 
-export const SAFETY_LINE =
-  'Statistical guidance only, not an instruction: never take more samples where conditions are unsafe.';
+export const SAFETY_LINE = 'Statistical guidance, not an instruction: stop if unsafe.';
 
 export function moreText(a: Assessment, paceMs: number | null): string | null {
   const m = a.more;
@@ -13,8 +12,15 @@ export function moreText(a: Assessment, paceMs: number | null): string | null {
   if (!m) return null;
   if (m.atLeast) return `at least ${m.likely} more before a verdict`;
   const range = m.low === m.high ? '' : ` (likely ${m.low}–${m.high})`;
+  if (m.likely === 0)
+    return `the next entries may settle it${range ? ` (likely ${m.low}–${m.high} more)` : ''}`;
   const pace = paceMs !== null ? `, about ${formatDuration(m.likely * paceMs)} at your pace` : '';
   return `about ${m.likely} more${range}${pace}`;
+}
+
+/** The method without the stopping rule's explanation (the report carries the whole label). */
+export function shortMethod(label: string): string {
+  return (label.split('; stopping rule')[0] ?? label).replace(/(\d+\.\d)\d+ %/g, '$1 %');
 }
 
 export function verdictClass(a: Assessment): string {
@@ -36,9 +42,11 @@ export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs:
           <span class="n-label">n</span> <span data-testid="n">{a.n}</span>
         </p>
       </div>
-      {!(a.verdict.status === 'keep going' && a.verdict.reason === 'below-minimum' && more) && (
-        <p class="why">{a.verdict.message}</p>
-      )}
+      {!(
+        a.verdict.status === 'keep going' &&
+        (a.verdict.reason === 'below-minimum' || a.verdict.reason === 'target-not-met') &&
+        more
+      ) && <p class="why">{a.verdict.message}</p>}
       <p class="est">
         <span class="big" data-testid="estimate" data-value={a.estimate ?? undefined}>
           {s.estimate}
@@ -46,8 +54,7 @@ export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs:
         <span class="unit">{s.unit}</span>
         {s.interval && (
           <span class="ci">
-            {' '}
-            ({' '}
+            {' ('}
             <span data-testid="interval" data-lower={a.lower ?? undefined} data-upper={a.upper ?? undefined}>
               {s.interval}
             </span>
@@ -55,7 +62,9 @@ export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs:
           </span>
         )}
       </p>
-      <p class="method">{s.interval ? a.methodLabel : 'no interval yet (needs at least 2 entries)'}</p>
+      <p class="method">
+        {s.interval ? shortMethod(a.methodLabel) : 'no interval yet (needs at least 2 entries)'}
+      </p>
       {more && (
         <p class="more" data-testid="more">
           {more}

@@ -96,7 +96,7 @@ function Field({ view }: { view: StudyView }) {
           aria-pressed={s.position}
           onClick={() => updateSettings({ position: !s.position })}
         >
-          {s.position ? positionText(pos) : 'position off'}
+          {s.position ? positionText(pos) : positionText({ state: 'off' })}
         </button>
       </div>
       {kind === 'measurement' && (

@@ -71,6 +71,9 @@ function Report({ view }: { view: StudyView }) {
           </dd>
         </dl>
         <BackupLine notExported={session.lastSeq - view.exported} />
+        <a class="btn" href={href.newStudy(study.id, 'change')}>
+          Change setup (starts version {study.version + 1}, linked)
+        </a>
       </section>
       <section aria-labelledby="r-method">
         <h2 id="r-method">Method</h2>

@@ -6,14 +6,13 @@ import { StudySession } from '../../state/session.ts';
 import { useStore } from '../../state/store.ts';
 import { exportedUpTo } from '../../storage/exports.ts';
 import { ensurePersistence } from '../../storage/meta.ts';
-import { appendDemoEntries, listObservations } from '../../storage/observations.ts';
+import { listObservations } from '../../storage/observations.ts';
 import type { StoredStudy } from '../../storage/schema.ts';
-import { createStudy, listStudies, setArchived } from '../../storage/studies.ts';
+import { listStudies, setArchived } from '../../storage/studies.ts';
 import { TopBar } from '../components/chrome.tsx';
 import { verdictClass } from '../components/verdict.tsx';
-import { type DemoScenario, demoScenarios } from '../demo.ts';
 import { kindText, targetText } from '../format.ts';
-import { go, href } from '../router.ts';
+import { href } from '../router.ts';
 import { studiesSlots } from '../slots.ts';
 
 interface Row {
@@ -51,15 +50,9 @@ export function PersistNotice() {
   return (
     <div class="persist warn" role="note" data-testid="persist">
       <p>
-        <strong>
-          Storage:{' '}
-          {p.answer === 'unsupported'
-            ? 'this browser cannot promise to keep'
-            : 'the browser did not promise to keep'}{' '}
-          the data.
-        </strong>{' '}
-        It may clear them when the phone runs short of space or the app goes unused. Install the app (browser
-        menu → Add to Home screen) before entering data, and export at the end of each day.
+        <strong>Storage not guaranteed:</strong> the browser may clear the data when the phone runs short of
+        space. Install the app (browser menu → Add to Home screen) before entering data, and export at the end
+        of each day.
       </p>
       {p.answer === 'refused' && (
         <button
@@ -201,46 +194,5 @@ function Toggle(props: { label: string; on: boolean; set(v: boolean): void }) {
       />
       <span>{props.label}</span>
     </label>
-  );
-}
-
-export async function openDemo(d: DemoScenario): Promise<void> {
-  const existing = (await listStudies()).find(
-    (s) => s.demo && !s.archivedAt && s.setup.kind === d.setup.kind,
-  );
-  if (existing) return go(href.field(existing.id));
-  const study = await createStudy({ name: d.name, setup: d.setup, demo: true }, device.get());
-  await appendDemoEntries(study.id, d.values, d.gapMs, device.get());
-  go(href.field(study.id));
-}
-
-export function DemoScreen() {
-  const [error, setError] = useState<string | null>(null);
-  return (
-    <div class="screen demo-screen">
-      <TopBar title="Open the demo" back={{ href: href.studies(), label: 'Studies' }} />
-      <p class="demo-label" role="note">
-        Every demo uses invented data for an invented place. Try the screens, then archive the demo.
-      </p>
-      {error && (
-        <p class="warn" role="alert">
-          {error}
-        </p>
-      )}
-      <ul class="cards">
-        {demoScenarios().map((d) => (
-          <li key={d.key} class="card">
-            <button
-              type="button"
-              class="card-main"
-              onClick={() => openDemo(d).catch((err) => setError((err as Error).message))}
-            >
-              <span class="card-name">{d.name}</span>
-              <span class="card-kind">{d.blurb}</span>
-            </button>
-          </li>
-        ))}
-      </ul>
-    </div>
   );
 }
