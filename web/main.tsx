@@ -4,6 +4,7 @@
  */
 import { render } from 'preact';
 import { App } from './app/App.tsx';
+import { loadCore } from './core-loader.ts';
 import './handover/index.ts';
 import { registerServiceWorker } from './pwa/register.ts';
 import { applyTheme, dbBlocked, device, persistState } from './state/app-state.ts';
@@ -25,6 +26,8 @@ async function init(): Promise<void> {
     return;
   }
   render(<App />, root);
+  // Fetch the statistics core right after the first paint (see core-loader.ts).
+  void loadCore();
   registerServiceWorker();
   persistState.set(await ensurePersistence().catch(() => ({ answer: 'refused' as const, firstRun: false })));
 }

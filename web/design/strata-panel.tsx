@@ -5,7 +5,7 @@
  * All figures come from the core (strataProgress, the assessment's `whereNext*` details, neymanAllocation).
  */
 import type { AnalysisSetup, Assessment, Point } from '../core.ts';
-import { neymanAllocation, strataProgress } from '../core.ts';
+import { loadedCore } from '../core-loader.ts';
 
 export interface StrataPanelProps {
   setup: AnalysisSetup;
@@ -26,6 +26,8 @@ function pct(x: number): string {
 
 export function StrataPanel(props: StrataPanelProps) {
   const { setup, points, assessment: a } = props;
+  // Mounted only on a loaded study's field screen, so the core is there.
+  const { neymanAllocation, strataProgress } = loadedCore();
   const rows = strataProgress(points, setup);
   const next = typeof a.details.whereNext === 'string' ? a.details.whereNext : null;
   const why =

@@ -5,7 +5,7 @@
  * this. Parsing is the core's parseStrata, the same syntax as the command line's --strata / --cost.
  */
 import type { StratumSetup } from '../core.ts';
-import { parseStrata } from '../core.ts';
+import { parseStrata } from '../core-light.ts';
 
 export interface StrataFieldsValue {
   strata: string;

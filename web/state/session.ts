@@ -2,17 +2,11 @@
  * One open study in memory: its event log, the core's running summary, the current assessment, a
  * downsampled running series for the chart, and the pace. Applying a new entry is O(1) (O(log n) for
  * the pace median); a void removes one point from the summary in O(1) and rebuilds only the chart series.
- * All statistics come from the core (assessSummary); nothing here computes an interval.
+ * All statistics come from the core (assessSummary); nothing here computes an interval. A session is
+ * only constructed after `loadCore()` resolved (see web/core-loader.ts).
  */
-import {
-  type Assessment,
-  assessDesign,
-  assessSummary,
-  type ObservationRecord,
-  type Point,
-  RunningSummary,
-  usesDesign,
-} from '../core.ts';
+import type { Assessment, ObservationRecord, Point, RunningSummary } from '../core.ts';
+import { loadedCore } from '../core-loader.ts';
 import type { StoredStudy } from '../storage/schema.ts';
 import { Pace } from './pace.ts';
 
@@ -39,7 +33,7 @@ export class StudySession {
   /** entry id → the void record that withdrew it. */
   readonly voidOf = new Map<string, ObservationRecord>();
   private readonly byId = new Map<string, ObservationRecord>();
-  private summary = new RunningSummary();
+  private summary: RunningSummary = new (loadedCore().RunningSummary)();
   /** Counted uncensored values in entry order (the stopping rules may look back). */
   private values: number[] = [];
   /** Counted points in entry order, for the design-aware estimates (web/design, issue 7; O(n) per entry). */
@@ -104,6 +98,7 @@ export class StudySession {
     if (!p.censored) values.push(p.value);
     this.points.push(p);
     const setup = this.study.setup;
+    const { assessDesign, assessSummary, usesDesign } = loadedCore();
     const a = usesDesign(this.points, setup)
       ? assessDesign(this.points, setup)
       : assessSummary(summary, setup, values, { previous: this.previous });
@@ -135,7 +130,7 @@ export class StudySession {
 
   /** Replays the counted entries through a fresh summary (on load, and after a void). O(n). */
   private replay(): void {
-    this.summary = new RunningSummary();
+    this.summary = new (loadedCore().RunningSummary)();
     this.values = [];
     this.points = [];
     this.previous = null;
@@ -152,8 +147,8 @@ export class StudySession {
     }
     this.assessment =
       a ??
-      (usesDesign([], this.study.setup)
-        ? assessDesign([], this.study.setup)
-        : assessSummary(this.summary, this.study.setup, this.values));
+      (loadedCore().usesDesign([], this.study.setup)
+        ? loadedCore().assessDesign([], this.study.setup)
+        : loadedCore().assessSummary(this.summary, this.study.setup, this.values));
   }
 }

@@ -5,6 +5,7 @@
  */
 import { useCallback, useEffect, useRef, useState } from 'preact/hooks';
 import type { Assessment, ObservationRecord } from '../core.ts';
+import { loadCore } from '../core-loader.ts';
 import { exportedUpTo } from '../storage/exports.ts';
 import {
   addEntry,
@@ -59,6 +60,8 @@ export function useStudy(id: string): StudyView {
           return;
         }
         const [records, upTo] = await Promise.all([listObservations(id), exportedUpTo(id)]);
+        if (!live) return;
+        await loadCore();
         if (!live) return;
         const s = new StudySession(study, records);
         ref.current = s;

@@ -6,7 +6,7 @@
 import type { ComponentChildren } from 'preact';
 import { useEffect, useState } from 'preact/hooks';
 import type { DataKind, RuleName, StudySetup, Target } from '../../core.ts';
-import { formatStrata } from '../../core.ts';
+import { formatStrata } from '../../core-light.ts';
 import { strataFromFields } from '../../design/strata-setup.tsx';
 import { parseMeasurement } from '../../input/parse.ts';
 import { device } from '../../state/app-state.ts';

@@ -1,6 +1,7 @@
 /** The studies list: verdict and n per study, open, duplicate the setup, archive (never delete). */
 import { useEffect, useState } from 'preact/hooks';
 import type { Assessment } from '../../core.ts';
+import { loadCore } from '../../core-loader.ts';
 import { device, persistState, settings, updateSettings } from '../../state/app-state.ts';
 import { StudySession } from '../../state/session.ts';
 import { useStore } from '../../state/store.ts';
@@ -23,7 +24,8 @@ interface Row {
 }
 
 async function loadRows(): Promise<Row[]> {
-  const studies = (await listStudies()).reverse();
+  const [studiesRaw] = await Promise.all([listStudies(), loadCore()]);
+  const studies = studiesRaw.reverse();
   return Promise.all(
     studies.map(async (study) => {
       try {

@@ -1,0 +1,5 @@
+/**
+ * Core helpers that carry no statistics (and so no jstat), safe to import statically from the app shell.
+ * Everything else from src/ is reached through ./core-loader.ts.
+ */
+export { formatStrata, parseStrata } from '../src/design/strata-spec.ts';
