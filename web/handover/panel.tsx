@@ -68,14 +68,21 @@ export function HandoverPanel({ study, records, lastSeq }: ReportSlotProps) {
         setStatus({ ok: false, text: 'Not exported: the share sheet was closed.' });
         return;
       }
+      const done = `${how === 'shared' ? 'Shared' : 'Downloaded'}: ${built.files.map((f) => f.name).join(', ')}`;
       if (BACKUP.includes(format)) {
-        await recordExport(study.id, lastSeq, format);
-        setExported(Math.max(exported ?? 0, lastSeq));
+        try {
+          await recordExport(study.id, lastSeq, format);
+          setExported(Math.max(exported ?? 0, lastSeq));
+        } catch (err) {
+          // The files did leave the phone; only the note of it could not be stored (e.g. storage full).
+          setStatus({
+            ok: true,
+            text: `${done}. This phone could not note the export (${(err as Error).message}), so the "not yet exported" count stays.`,
+          });
+          return;
+        }
       }
-      setStatus({
-        ok: true,
-        text: `${how === 'shared' ? 'Shared' : 'Downloaded'}: ${built.files.map((f) => f.name).join(', ')}`,
-      });
+      setStatus({ ok: true, text: done });
     } catch (err) {
       setStatus({ ok: false, text: `Not exported: ${(err as Error).message}` });
     } finally {
