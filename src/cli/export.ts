@@ -1,5 +1,5 @@
 /**
- * `sure-enough export --format csv|geojson|dwc|report BUNDLE`: a study bundle in an open format on stdout.
+ * `sure-enough export --format csv|geojson|dwc|report|values BUNDLE`: a study bundle in an open format on stdout.
  * Also home of `readBundle`, shared with `merge`.
  */
 import type { Bundle } from '../bundle/bundle.ts';
@@ -8,12 +8,14 @@ import { coverageStatement } from '../export/coverage.ts';
 import { dataDictionaryCsv, eventsCsv } from '../export/csv.ts';
 import { dwcTables } from '../export/dwc.ts';
 import { geoJsonText } from '../export/geojson.ts';
+import { assessInputCsv } from '../export/recipe.ts';
 import { reportHtml } from '../export/report.ts';
 import { type ParsedArgs, readInput, UsageError } from './io.ts';
 
-export const summary = 'a study bundle as CSV, GeoJSON, Darwin Core tables or a printable HTML report';
+export const summary =
+  'a study bundle as CSV, GeoJSON, Darwin Core tables, a printable HTML report or values for assess';
 
-export const help = `usage: sure-enough export --format csv|geojson|dwc|report [--dictionary] [--table event|occurrence] BUNDLE
+export const help = `usage: sure-enough export --format csv|geojson|dwc|report|values [--dictionary] [--table event|occurrence] BUNDLE
 
 Reads a study bundle (FILE, or - for standard input), checks it (format, version, every field, checksum)
 and prints the export on stdout:
@@ -21,7 +23,9 @@ and prints the export on stdout:
             column (counted | voided | void-record), ISO 8601 times with offset, the unit in the value
             column's name (e.g. value_mg_per_kg; counts: count_per_plot; pass/fail: outcome_1_or_0).
             --dictionary prints the data dictionary instead: one row per column (column, type, unit,
-            description, allowed_values).
+            description, allowed_values), then rows "study.*" describing the study-level design (sampling
+            design, each stratum's weight and effort, non-detect method, reporting limit); on those
+            rows allowed_values holds this study's setting.
   geojson   RFC 7946 FeatureCollection of the entries with a position: Point [longitude, latitude]
             (WGS 84), the accuracy radius as property accuracy_m, the event UUID as the feature id.
   dwc       count studies with a taxon only: Darwin Core sampling-event table (event.csv) and occurrence
@@ -30,7 +34,10 @@ and prints the export on stdout:
             and separated by an empty line (use --table for files a program reads).
   report    a self-contained printable HTML page (print it to PDF from a browser): setup, verdict and
             interval, method statement, running-interval chart, entries and voids, collectors' shares,
-            cautions, and the SHA-256 of the event log.
+            cautions, the SHA-256 of the event log, and the commands that reproduce its figures.
+  values    the counted entries in log order as input for \`sure-enough assess\` (the report's recipe): a
+            CSV with a value column (<RL for a non-detect) and stratum / cluster columns when entries
+            carry them. With the report's assess flags it gives the report's figures exactly.
 A bundle that fails any check is refused: the problems are listed on stderr (exit code 2, nothing on stdout).
 `;
 
@@ -49,8 +56,8 @@ export function run(args: ParsedArgs): string {
       throw new UsageError(`unknown flag --${k}; see \`sure-enough help export\``);
   const format = args.flags.get('format');
   if (format === undefined) throw new UsageError('flag --format is required: csv, geojson, dwc or report');
-  if (!['csv', 'geojson', 'dwc', 'report'].includes(format))
-    throw new UsageError(`flag --format: "${format}" is not one of csv, geojson, dwc, report`);
+  if (!['csv', 'geojson', 'dwc', 'report', 'values'].includes(format))
+    throw new UsageError(`flag --format: "${format}" is not one of csv, geojson, dwc, report, values`);
   const dictionary = args.flags.get('dictionary');
   if (dictionary !== undefined && format !== 'csv')
     throw new UsageError('flag --dictionary goes with --format csv');
@@ -68,6 +75,8 @@ export function run(args: ParsedArgs): string {
       return dictionary ? dataDictionaryCsv(bundle) : eventsCsv(bundle);
     case 'geojson':
       return geoJsonText(bundle);
+    case 'values':
+      return assessInputCsv(bundle);
     case 'dwc': {
       const r = dwcTables(bundle);
       if (!r.ok) throw new UsageError(r.message);

@@ -8,9 +8,16 @@
  * withdrawn entry's id in `voids` and the reason). Times are ISO 8601 with UTC offset exactly as
  * recorded. The value column's name carries the unit (`value_mg_per_kg`; counts `count_per_plot`;
  * pass/fail `outcome_1_or_0`). Booleans are `true` / `false`; missing is an empty field.
+ *
+ * The dictionary has one row per column of the table, in order, then rows named `study.*` for the
+ * study-level design that no column shows (the same five fields, so the file stays one RFC 4180 table):
+ * `study.design` (simple random sample, stratified, primary units, stratified with primary units,
+ * composite), `study.stratum.NAME.weight` / `.cost` / `.population` for each declared stratum, and for
+ * measurements `study.non_detects` (kaplan-meier or half-limit) and `study.reporting_limit`. On these rows
+ * `allowed_values` holds this study's setting.
  */
 import type { Bundle } from '../bundle/bundle.ts';
-import { statusOf } from '../bundle/events.ts';
+import { countedEntries, statusOf } from '../bundle/events.ts';
 import type { ObservationRecord, StudySetup } from '../model/records.ts';
 import { csvText } from './rfc4180.ts';
 import { unitSlug } from './units.ts';
@@ -101,7 +108,7 @@ function columns(bundle: Bundle): Column[] {
       name: 'censored',
       type: 'boolean',
       unit: '',
-      description: 'true = below the reporting limit given in the value column (non-detect)',
+      description: `true = below the reporting limit given in the value column (non-detect); non-detects are ${s.nonDetects === 'half-limit' ? 'replaced by half the reporting limit (substitution, as chosen for this study)' : 'handled by the Kaplan–Meier mean (Helsel 2012)'}; see study.non_detects`,
       allowed: 'true, false; empty on void records',
       get: (e) => (e.voids !== undefined ? undefined : e.censored === true),
     });
@@ -118,15 +125,20 @@ function columns(bundle: Bundle): Column[] {
       name: 'stratum',
       type: 'text',
       unit: '',
-      description: 'Stratum the entry belongs to',
-      allowed: 'any text',
+      description:
+        s.strata !== undefined && s.strata.length > 0
+          ? 'Stratum the entry belongs to; the estimate is the stratified mean over the declared strata (weights and efforts in the study.stratum.* rows)'
+          : 'Stratum the entry belongs to (the study declares no strata: not used by the estimate)',
+      allowed:
+        s.strata !== undefined && s.strata.length > 0 ? s.strata.map((x) => x.name).join(', ') : 'any text',
       get: (e) => e.stratum,
     },
     {
       name: 'cluster',
       type: 'text',
       unit: '',
-      description: 'Primary unit (transect, room, composite) the entry belongs to',
+      description:
+        'Primary unit (transect, room) the entry belongs to; when entries carry one, the primary units are the replicates of the estimate (ratio mean, Cochran 1977 ch. 9)',
       allowed: 'any text',
       get: (e) => e.cluster,
     },
@@ -198,11 +210,93 @@ export function eventsCsv(bundle: Bundle): string {
   return csvText([cols.map((c) => c.name), ...rows]);
 }
 
-/** The data dictionary of eventsCsv: one row per column (column, type, unit, description, allowed_values). */
+/** The sampling design as one word group (the `study.design` row). */
+export function designName(bundle: Bundle): string {
+  const s = bundle.study.setup;
+  if (s.design === 'composite') return 'composite';
+  const clustered = countedEntries(bundle.events).some((e) => e.cluster !== undefined);
+  const stratified = s.strata !== undefined && s.strata.length > 0;
+  if (stratified) return clustered ? 'stratified with primary units' : 'stratified';
+  return clustered ? 'primary units' : 'simple random sample';
+}
+
+const DESIGN_WORDS: Record<string, string> = {
+  composite:
+    'each entry is one replicate composite (incremental sample); the bound comes from the replicates (Student t, or Chebyshev when chosen)',
+  stratified:
+    'stratified random sample: the estimate is the stratified mean (Cochran 1977, ch. 5) with a Student t interval on Satterthwaite’s effective degrees of freedom',
+  'stratified with primary units':
+    'stratified random sample of primary units: the stratified mean (Cochran 1977, ch. 5), each stratum’s primary units (column cluster) as its replicates',
+  'primary units':
+    'entries grouped in primary units (column cluster): the ratio mean with the primary units as the replicates (Cochran 1977, ch. 9)',
+  'simple random sample': 'entries treated as a simple random sample of independent values',
+};
+
+/** The `study.*` rows of the dictionary (see the file comment): column, type, unit, description, value. */
+function studyRows(bundle: Bundle): string[][] {
+  const s = bundle.study.setup;
+  const design = designName(bundle);
+  const rows: string[][] = [
+    ['study.design', 'text', '', `Study setting: sampling design — ${DESIGN_WORDS[design]}`, design],
+  ];
+  const strata = s.strata ?? [];
+  const total = strata.reduce((t, x) => t + x.weight, 0);
+  for (const x of strata) {
+    rows.push([
+      `study.stratum.${x.name}.weight`,
+      'number',
+      'relative weight',
+      `Study setting: weight of stratum ${x.name} (area share, area or number of units, as entered; rescaled to sum to 1, here ${Number(((100 * x.weight) / total).toPrecision(4))} %)`,
+      String(x.weight),
+    ]);
+    if (x.cost !== undefined)
+      rows.push([
+        `study.stratum.${x.name}.cost`,
+        'number',
+        'effort per entry',
+        `Study setting: effort of one entry in stratum ${x.name} (minutes, money; strata without one count 1), used to suggest where the next entry narrows the interval most`,
+        String(x.cost),
+      ]);
+    if (x.population !== undefined)
+      rows.push([
+        `study.stratum.${x.name}.population`,
+        'integer',
+        'units',
+        `Study setting: number of units in stratum ${x.name} (finite population correction)`,
+        String(x.population),
+      ]);
+  }
+  if (s.kind === 'measurement') {
+    rows.push([
+      'study.non_detects',
+      'text',
+      '',
+      s.nonDetects === 'half-limit'
+        ? 'Study setting: how results below a reporting limit (censored = true) are used — replaced by half the reporting limit (substitution, as chosen for this study)'
+        : 'Study setting: how results below a reporting limit (censored = true) are used — Kaplan–Meier mean and standard deviation (Helsel 2012); no mean above 50 % non-detects',
+      s.nonDetects ?? 'kaplan-meier',
+    ]);
+    if (s.reportingLimit !== undefined)
+      rows.push([
+        'study.reporting_limit',
+        'number',
+        s.unit ?? '',
+        'Study setting: the laboratory’s reporting limit',
+        String(s.reportingLimit),
+      ]);
+  }
+  return rows;
+}
+
+/**
+ * The data dictionary of eventsCsv: one row per column (column, type, unit, description, allowed_values),
+ * then the `study.*` rows of the study-level design.
+ */
 export function dataDictionaryCsv(bundle: Bundle): string {
   const cols = columns(bundle);
   return csvText([
     ['column', 'type', 'unit', 'description', 'allowed_values'],
     ...cols.map((c) => [c.name, c.type, c.unit, c.description, c.allowed]),
+    ...studyRows(bundle),
   ]);
 }

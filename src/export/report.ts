@@ -4,7 +4,12 @@
  * interval, the method in plain words (interval, stopping rule and the rule's measured coverage), an
  * inline SVG chart of the running interval, the entry count with voids, each collector's share, likely
  * duplicates, warnings, the cautions, the SHA-256 of the event log and the bundle checksum, and the
- * `sure-enough assess` command that reproduces the numbers.
+ * commands that reproduce the numbers (recipe.ts: `sure-enough export --format values` then
+ * `sure-enough assess` with the study's flags, strata, design and non-detect method included).
+ *
+ * The running-interval chart uses the same assessment as the result: the design-aware estimate (stratified
+ * mean, primary units, composites, Kaplan–Meier) from the first entry at which the study's design applies,
+ * the simple running estimate otherwise — so its last point is the reported interval.
  *
  * Everything typed by a user (study name, notes, units, labels, device names, reasons) is HTML-escaped
  * (`escapeHtml`): the five characters & < > " ' become character references (HTML Living Standard,
@@ -14,9 +19,14 @@ import { assess, assessSummary } from '../assess.ts';
 import { type Bundle, eventLogHash } from '../bundle/bundle.ts';
 import { collectorShares, countedEntries, logCounts, pointsOf } from '../bundle/events.ts';
 import { likelyDuplicates } from '../bundle/merge.ts';
+import { assessDesign } from '../design/index.ts';
 import type { StudySetup } from '../model/records.ts';
 import type { Assessment, Target } from '../model/types.ts';
 import { RunningSummary } from '../stats/running-summary.ts';
+import { COVERAGE_SOURCE } from './coverage.ts';
+import { recipeCommands, recipeGaps } from './recipe.ts';
+
+export { assessFlags } from './recipe.ts';
 
 export interface ReportOptions {
   /**
@@ -92,15 +102,65 @@ function kindWords(setup: StudySetup): string {
   return `measurement${setup.unit ? ` in ${setup.unit}` : ''}`;
 }
 
-/** The `sure-enough assess` flags that reproduce this setup (CLI.md study flags). */
-export function assessFlags(setup: StudySetup): string {
-  const f: string[] = [`--kind ${setup.kind}`, `--level ${setup.level}`, `--sided ${setup.sided}`];
-  if (setup.method) f.push(`--method ${setup.method}`);
-  if (setup.target) f.push(`--target ${setup.target.kind}:${setup.target.value}`);
-  f.push(`--rule ${setup.rule}`, `--min ${setup.min}`);
-  if (setup.population !== undefined) f.push(`--population ${setup.population}`);
-  if (setup.plotArea !== undefined) f.push(`--plot-area ${setup.plotArea}`);
-  return f.join(' ');
+/** Estimators of src/design, by their `method` name (the report says their coverage was not benchmarked). */
+const DESIGN_METHODS = new Set([
+  'stratified-t',
+  'cluster-ratio-t',
+  'composite-t',
+  'composite-chebyshev',
+  'kaplan-meier-t',
+  'half-limit-t',
+  'not-supported',
+]);
+
+function strataWords(setup: StudySetup): string {
+  const strata = setup.strata ?? [];
+  const total = strata.reduce((t, s) => t + s.weight, 0);
+  return strata
+    .map(
+      (s) =>
+        `${s.name}: weight ${fmt(s.weight)} (${pct(s.weight / total)})${s.cost !== undefined ? `, effort per entry ${fmt(s.cost)}` : ''}${s.population !== undefined ? `, ${s.population} units` : ''}`,
+    )
+    .join('; ');
+}
+
+/** The sampling design in words (strata, primary units, composites), from the setup and the entries. */
+export function designWords(bundle: Bundle): string {
+  const setup = bundle.study.setup;
+  if (setup.design === 'composite')
+    return 'replicate composites (incremental samples): one entry per composite';
+  const clusters = new Set(
+    countedEntries(bundle.events)
+      .map((e) => e.cluster)
+      .filter((c) => c !== undefined),
+  ).size;
+  const strata = setup.strata?.length ?? 0;
+  const units = clusters > 0 ? `, entries grouped in ${clusters} primary units (transects, rooms)` : '';
+  if (strata > 0) return `stratified random sample, ${strata} strata${units}`;
+  if (clusters > 0) return `primary units as replicates: ${clusters} units (transects, rooms)`;
+  return 'simple random sample (entries independent)';
+}
+
+function estimateWords(a: Assessment, setup: StudySetup): string {
+  const d = a.details;
+  const num = (k: string) => (typeof d[k] === 'number' ? (d[k] as number) : null);
+  switch (a.method) {
+    case 'stratified-t':
+      return `the stratified mean (each stratum’s mean weighted by its share; Cochran 1977, ch. 5) over the ${setup.strata?.length ?? 0} declared strata, from ${a.n} counted entries`;
+    case 'cluster-ratio-t':
+      return `the ratio mean (sum of the values over the number of entries, with the ${num('primaryUnits') ?? '?'} primary units as the replicates; Cochran 1977, ch. 9) of the ${a.n} counted entries`;
+    case 'composite-t':
+    case 'composite-chebyshev':
+      return `the mean of the ${a.n} replicate composites`;
+    case 'kaplan-meier-t':
+      return `the Kaplan–Meier mean (Helsel 2012) of the ${a.n} counted results, ${num('nonDetects') ?? 0} of them below a reporting limit`;
+    case 'half-limit-t':
+      return `the mean of the ${a.n} counted results with the ${num('substituted') ?? 0} non-detects set to half their reporting limit (substitution, as chosen for this study)`;
+    case 'not-supported':
+      return `not given: non-detects inside strata, primary units or composites are not supported (${a.n} counted entries)`;
+    default:
+      return `the ${setup.kind === 'pass-fail' ? 'proportion of the counted outcome among' : 'mean of'} the ${a.n} counted entries${setup.kind === 'count' ? ' (per plot)' : ''}`;
+  }
 }
 
 interface ChartPoint {
@@ -110,7 +170,12 @@ interface ChartPoint {
   upper: number | null;
 }
 
-/** Running interval after each counted entry (at most ~200 points, evenly spread, always the last). */
+/**
+ * Running interval after each counted entry (at most ~200 points, evenly spread, always the last), by the
+ * same assessment as the result: design-aware (src/design) once the study's design applies to the entries
+ * so far (declared strata or composites; any entry with a primary unit or below a reporting limit), the
+ * simple per-entry assessment before that.
+ */
 export function runningInterval(bundle: Bundle): ChartPoint[] {
   const setup = bundle.study.setup;
   const points = pointsOf(bundle.events);
@@ -118,12 +183,17 @@ export function runningInterval(bundle: Bundle): ChartPoint[] {
   const summary = new RunningSummary();
   const values: number[] = [];
   const out: ChartPoint[] = [];
+  // the same test as usesDesign (src/design/index.ts), kept incrementally
+  let design = (setup.strata !== undefined && setup.strata.length > 0) || setup.design === 'composite';
   points.forEach((p, i) => {
     summary.add(p);
     if (!p.censored) values.push(p.value);
+    if (p.cluster !== undefined || p.censored === true) design = true;
     const n = i + 1;
     if (n % step !== 0 && n !== points.length) return;
-    const a = assessSummary(summary, setup, values, { projection: false });
+    const a = design
+      ? assessDesign(points.slice(0, n), setup)
+      : assessSummary(summary, setup, values, { projection: false });
     out.push({ n, estimate: a.estimate, lower: a.lower, upper: a.upper });
   });
   return out;
@@ -136,11 +206,19 @@ function chartSvg(points: ChartPoint[], setup: StudySetup): string {
   const R = 12;
   const T = 12;
   const B = 36;
-  const finite = points.filter((p) => p.lower !== null && p.upper !== null && p.estimate !== null);
+  // a one-sided bound is drawn as a band from the estimate to the bound
+  const finite = points
+    .filter((p) => p.estimate !== null && (p.lower !== null || p.upper !== null))
+    .map((p) => ({
+      n: p.n,
+      estimate: p.estimate as number,
+      lower: p.lower ?? (p.estimate as number),
+      upper: p.upper ?? (p.estimate as number),
+    }));
   if (finite.length === 0)
     return '<p class="muted">No interval yet: too few counted entries to draw the running interval.</p>';
-  let lo = Math.min(...finite.map((p) => p.lower as number));
-  let hi = Math.max(...finite.map((p) => p.upper as number));
+  let lo = Math.min(...finite.map((p) => p.lower));
+  let hi = Math.max(...finite.map((p) => p.upper));
   const limit = setup.target?.kind === 'limit' ? setup.target.value : null;
   if (limit !== null) {
     lo = Math.min(lo, limit);
@@ -157,11 +235,11 @@ function chartSvg(points: ChartPoint[], setup: StudySetup): string {
   const x = (n: number) => L + ((n - 1) / (nMax - 1)) * (W - L - R);
   const y = (v: number) => T + ((hi - v) / (hi - lo)) * (H - T - B);
   const f = (v: number) => v.toFixed(1);
-  const band = `${finite.map((p) => `${f(x(p.n))},${f(y(p.upper as number))}`).join(' ')} ${[...finite]
+  const band = `${finite.map((p) => `${f(x(p.n))},${f(y(p.upper))}`).join(' ')} ${[...finite]
     .reverse()
-    .map((p) => `${f(x(p.n))},${f(y(p.lower as number))}`)
+    .map((p) => `${f(x(p.n))},${f(y(p.lower))}`)
     .join(' ')}`;
-  const line = finite.map((p) => `${f(x(p.n))},${f(y(p.estimate as number))}`).join(' ');
+  const line = finite.map((p) => `${f(x(p.n))},${f(y(p.estimate))}`).join(' ');
   const ticks = [lo + pad, (lo + hi) / 2, hi - pad];
   const parts = [
     `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="100%" role="img" aria-label="Running estimate and interval against the number of entries">`,
@@ -229,13 +307,13 @@ export function reportHtml(bundle: Bundle, options: ReportOptions): string {
         ? 'one-sided upper bound'
         : 'one-sided lower bound';
   const interval =
-    a.lower !== null && a.upper !== null
-      ? a.sided === 'upper'
-        ? `at most ${fmt(a.upper)}${unit}`
-        : a.sided === 'lower'
-          ? `at least ${fmt(a.lower)}${unit}`
-          : `${fmt(a.lower)} to ${fmt(a.upper)}${unit}`
-      : 'not available';
+    a.sided === 'upper' && a.upper !== null
+      ? `at most ${fmt(a.upper)}${unit}`
+      : a.sided === 'lower' && a.lower !== null
+        ? `at least ${fmt(a.lower)}${unit}`
+        : a.sided === 'two' && a.lower !== null && a.upper !== null
+          ? `${fmt(a.lower)} to ${fmt(a.upper)}${unit}`
+          : 'not available';
   const more =
     a.more !== null
       ? `About ${a.more.atLeast ? 'at least ' : ''}${a.more.likely} more (likely ${a.more.low}–${a.more.high}).`
@@ -251,6 +329,18 @@ export function reportHtml(bundle: Bundle, options: ReportOptions): string {
       esc(`${pct(setup.level)} (${setup.sided === 'two' ? 'two-sided' : `one-sided, ${setup.sided}`})`),
     ),
     row('Interval method', esc(setup.method ?? 'the data kind’s default')),
+    row('Sampling design', esc(designWords(bundle))),
+    setup.strata !== undefined && setup.strata.length > 0 ? row('Strata', esc(strataWords(setup))) : '',
+    setup.kind === 'measurement'
+      ? row(
+          'Non-detects (<RL)',
+          esc(
+            setup.nonDetects === 'half-limit'
+              ? 'replaced by half the reporting limit (substitution, as chosen for this study)'
+              : 'Kaplan–Meier mean and SD (Helsel 2012)',
+          ),
+        )
+      : '',
     row('Stopping rule', esc(setup.rule)),
     row('Minimum before a verdict', esc(setup.min)),
     setup.population !== undefined ? row('Population / lot size', esc(setup.population)) : '',
@@ -262,6 +352,8 @@ export function reportHtml(bundle: Bundle, options: ReportOptions): string {
     study.notes ? row('Notes', esc(study.notes)) : '',
   ].join('\n');
 
+  const recipe = recipeCommands(setup);
+  const gaps = recipeGaps(bundle);
   const shareRows = shares
     .map(
       (s) =>
@@ -270,12 +362,22 @@ export function reportHtml(bundle: Bundle, options: ReportOptions): string {
     .join('\n');
 
   const method = [
-    `The estimate is the ${setup.kind === 'pass-fail' ? 'proportion of the counted outcome among' : 'mean of'} the ${a.n} counted entries${setup.kind === 'count' ? ' (per plot)' : ''}.`,
+    `The estimate is ${esc(estimateWords(a, setup))}.`,
     `The interval is ${esc(a.methodLabel)}, reported as a ${sidedWords} at ${esc(pct(a.level))}${a.level !== setup.level ? ` (the study’s nominal level is ${esc(pct(setup.level))}; the stopping rule reports at its own level)` : ''}.`,
     `Whether there is enough was decided with ${esc(ruleWords(setup.rule))}.`,
     `Measured coverage of this rule: ${options.coverage === null ? 'not yet measured' : esc(options.coverage)}.`,
+    options.coverage !== null &&
+    setup.rule !== 'sprt' &&
+    Math.abs(setup.level * 100 - COVERAGE_SOURCE.nominalPercent) > 1e-9
+      ? `(The benchmark ran at ${COVERAGE_SOURCE.nominalPercent} %; this study uses ${esc(pct(setup.level))}.)`
+      : '',
+    DESIGN_METHODS.has(a.method)
+      ? 'That benchmark simulates simple random samples; the coverage of this design-based interval under the stopping rule has not been measured.'
+      : '',
     'Voided entries are kept in the log but left out of every figure.',
-  ].join(' ');
+  ]
+    .filter((x) => x !== '')
+    .join(' ');
 
   const exact = [
     ['n', a.n],
@@ -321,7 +423,7 @@ ${row('Counted entries', esc(a.n))}
 <section class="keep">
 <h2>Running interval</h2>
 ${chartSvg(runningInterval(bundle), setup)}
-<p class="muted">Line: the estimate after each counted entry; band: its interval as reported at that point.</p>
+<p class="muted">Line: the estimate after each counted entry; band: its ${a.sided === 'two' ? 'interval' : 'bound (from the estimate to the bound)'} as reported at that point, by the same method as the result${DESIGN_METHODS.has(a.method) ? ' (the design-based estimate wherever the design applies to the entries so far)' : ''}.</p>
 </section>
 
 <section class="keep">
@@ -370,7 +472,9 @@ ${a.warnings.length ? `<section class="keep"><h2>Warnings</h2><ul>${a.warnings.m
 ${row('SHA-256 of the event log', `<span class="hash">${esc(eventLogHash(events))}</span>`)}
 ${row('Bundle checksum (setup and log)', `<span class="hash">${esc(bundle.checksum.value)}</span>`)}
 </table>
-<p>Anyone holding the study bundle can check these (the recipe is in the bundle schema) and reproduce the figures: export the counted values (CSV rows with status <code>counted</code>) and run<br><code>sure-enough assess ${esc(assessFlags(setup))} values.txt</code></p>
+<p>Anyone holding the study bundle can check these (the recipe is in the bundle schema) and reproduce the figures: save the bundle as <code>study.bundle.json</code> and run</p>
+<p><code class="recipe">${esc(recipe[0])}</code><br><code class="recipe">${esc(recipe[1])}</code></p>
+<p>${gaps.length === 0 ? 'The first command writes the counted entries in log order (non-detects as <code>&lt;RL</code>, with their stratum and primary unit); the second prints the figures below exactly.' : `The command line cannot reproduce this study exactly: ${esc(gaps.join('; '))}.`}</p>
 <p>${exact}</p>
 </section>
 </body>

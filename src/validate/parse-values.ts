@@ -38,7 +38,8 @@ function parseNumber(raw: string, allowCommaDecimal: boolean): number | string {
   return `${show(s)} is not a number`;
 }
 
-function splitCsv(line: string, sep: string): string[] {
+/** One line split into trimmed cells (double quotes group; "" is a quote inside quotes). Shared with `bundle`. */
+export function splitCsv(line: string, sep: string): string[] {
   const out: string[] = [];
   let cur = '';
   let quoted = false;

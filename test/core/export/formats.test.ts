@@ -109,11 +109,73 @@ describe('CSV (RFC 4180) read back by Python csv', () => {
   it('all rows have the header width', () => {
     for (const r of body) expect(r).toHaveLength(header!.length);
   });
-  it('the data dictionary describes every column, in order', () => {
+  it('the data dictionary describes every column, in order, then the study-level design', () => {
     const dict = pythonCsv(dataDictionaryCsv(b));
     expect(dict[0]).toEqual(['column', 'type', 'unit', 'description', 'allowed_values']);
-    expect(dict.slice(1).map((r) => r[0])).toEqual(header);
+    const columnRows = dict.slice(1).filter((r) => !r[0]!.startsWith('study.'));
+    expect(columnRows.map((r) => r[0])).toEqual(header);
+    expect(dict.slice(1 + header!.length).every((r) => r[0]!.startsWith('study.'))).toBe(true);
     for (const r of dict.slice(1)) expect(r[3]!.length).toBeGreaterThan(10);
+    // one entry carries a primary unit (T2), so the estimate uses primary units (src/design usesDesign)
+    expect(dict.find((r) => r[0] === 'study.design')![4]).toBe('primary units');
+  });
+  it('the dictionary states strata weights, costs, units, the design and the non-detect method (RFC 4180 kept)', () => {
+    const st = study({
+      kind: 'measurement',
+      unit: 'ug/L',
+      plotArea: undefined,
+      taxon: undefined,
+      strata: [
+        { name: 'upstream, "old" weir', weight: 3, cost: 2.5, population: 40 },
+        { name: 'downstream', weight: 1 },
+      ],
+      nonDetects: 'half-limit',
+      reportingLimit: 0.2,
+    });
+    const m = makeBundle(
+      st,
+      entries(st, [1.2, 0.2, 0.9, 1.4], 'phone-B', 4, 0, (i) => ({
+        stratum: i % 2 ? 'downstream' : 'upstream, "old" weir',
+        ...(i === 1 ? { censored: true } : {}),
+      })),
+    );
+    const text = dataDictionaryCsv(m);
+    // RFC 4180 §2 rules 1–2 (CRLF after every record, the last too) and rule 4 (same field count per record)
+    expect(text.endsWith('\r\n')).toBe(true);
+    expect(
+      text
+        .replace(/"(?:[^"]|"")*"/g, '')
+        .split('\r\n')
+        .slice(0, -1)
+        .every((l) => l.split(',').length === 5),
+    ).toBe(true);
+    const dict = pythonCsv(text);
+    for (const r of dict) expect(r).toHaveLength(5);
+    const setting = (name: string) => dict.find((r) => r[0] === name);
+    expect(setting('study.design')![4]).toBe('stratified');
+    expect(setting('study.design')![3]).toMatch(/stratified mean \(Cochran 1977, ch\. 5\)/);
+    expect(setting('study.stratum.upstream, "old" weir.weight')!.slice(1)).toEqual([
+      'number',
+      'relative weight',
+      expect.stringContaining('here 75 %'),
+      '3',
+    ]);
+    expect(setting('study.stratum.upstream, "old" weir.cost')![4]).toBe('2.5');
+    expect(setting('study.stratum.upstream, "old" weir.population')![4]).toBe('40');
+    expect(setting('study.stratum.downstream.weight')![3]).toContain('here 25 %');
+    expect(setting('study.stratum.downstream.cost')).toBeUndefined();
+    expect(setting('study.non_detects')![4]).toBe('half-limit');
+    expect(setting('study.non_detects')![3]).toContain('half the reporting limit');
+    expect(setting('study.reporting_limit')!.slice(2)).toEqual(['ug/L', expect.any(String), '0.2']);
+    expect(setting('stratum')![4]).toBe('upstream, "old" weir, downstream');
+    expect(setting('censored')![3]).toContain('half the reporting limit');
+    // no design rows that do not apply: counts have no non-detect row; a composite study says so
+    const c = countBundle();
+    expect(pythonCsv(dataDictionaryCsv(c)).some((r) => r[0] === 'study.non_detects')).toBe(false);
+    const cs = study({ kind: 'measurement', plotArea: undefined, taxon: undefined, design: 'composite' });
+    const comp = pythonCsv(dataDictionaryCsv(makeBundle(cs, entries(cs, [4, 5], 'x', 2))));
+    expect(comp.find((r) => r[0] === 'study.design')![4]).toBe('composite');
+    expect(comp.find((r) => r[0] === 'study.non_detects')![4]).toBe('kaplan-meier');
   });
   it('measurement: unit in the value header, censored column', () => {
     const m = measurementBundle();

@@ -9,6 +9,7 @@ import { describe, expect, it } from 'vitest';
 import { assess } from '../../../src/assess.ts';
 import { makeBundle } from '../../../src/bundle/bundle.ts';
 import { pointsOf } from '../../../src/bundle/events.ts';
+import { coverageStatement } from '../../../src/export/coverage.ts';
 import { assessFlags, escapeHtml, fmt, reportHtml, runningInterval } from '../../../src/export/report.ts';
 import { entries, study, uuid, voidOf } from '../bundle/make.ts';
 
@@ -110,6 +111,23 @@ describe('report HTML', () => {
     const withCov = reportHtml(b, { coverage: '0.951 at 95 % (benchmark grid)' });
     expect(pyParse(withCov).text).toContain(
       'Measured coverage of this rule: 0.951 at 95 % (benchmark grid).',
+    );
+  });
+  it('measured coverage: the rule and kind’s benchmark figures, the level they were measured at, and the design caveat', () => {
+    const st = study({ level: 0.9 });
+    const counts = makeBundle(st, entries(st, [3, 0, 5, 2, 7, 0, 1, 4, 2, 3, 6, 1], 'phone-A', 2));
+    const text = pyParse(reportHtml(counts, { coverage: coverageStatement(st.setup) })).text;
+    expect(text).toContain('in 92.7–96.2 % of runs across the 6 count cells');
+    expect(text).toContain('(The benchmark ran at 95 %; this study uses 90 %.)');
+    expect(text).not.toContain('design-based interval');
+    const sprt = { ...st.setup, rule: 'sprt' as const };
+    expect(coverageStatement(sprt)).toContain('at most 2.93 % of runs (asked: 5 %)');
+    const clustered = makeBundle(
+      st,
+      entries(st, [3, 0, 5, 2, 7, 0, 1, 4, 2, 3, 6, 1], 'phone-A', 2, 0, (i) => ({ cluster: `T${i % 4}` })),
+    );
+    expect(pyParse(reportHtml(clustered, { coverage: coverageStatement(st.setup) })).text).toContain(
+      'That benchmark simulates simple random samples; the coverage of this design-based interval under the stopping rule has not been measured.',
     );
   });
   it('running interval ends at the final assessment', () => {
