@@ -16,9 +16,11 @@ export function registerServiceWorker(): void {
       wb.messageSkipWaiting();
     });
   });
-  wb.addEventListener('controlling', (e) => {
-    // Reload only when this page asked for the new version (never under someone mid-entry).
-    if (e.isUpdate && accepted) window.location.reload();
+  wb.addEventListener('controlling', () => {
+    // Reload only when this page asked for the new version (never under someone mid-entry). Not gated
+    // on `isUpdate`: workbox-window sets that from whether the page was controlled when it registered,
+    // so in the session that first installed the app an accepted update would never reload.
+    if (accepted) window.location.reload();
   });
   wb.addEventListener('installed', (e) => {
     if (!e.isUpdate) offlineReady.set(true);
