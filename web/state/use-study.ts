@@ -78,16 +78,27 @@ export function useStudy(id: string): StudyView {
     };
   }, [id]);
 
-  const apply = useCallback((records: ObservationRecord[]) => {
-    const s = ref.current as StudySession;
-    let before = s.assessment;
-    records.forEach((r, i) => {
-      const b = s.apply(r);
-      if (i === 0) before = b;
-    });
-    setVersion((v) => v + 1);
-    return { record: records.at(-1) as ObservationRecord, before };
-  }, []);
+  const apply = useCallback(
+    async (records: ObservationRecord[]) => {
+      let s = ref.current as StudySession;
+      let before = s.assessment;
+      if ((records[0]?.seq ?? 0) !== s.lastSeq + 1) {
+        // Another tab of the app wrote to this study meanwhile (a gap in seq): read the log again so that
+        // n, the verdict and "undo last" cover every entry on the phone, not only this tab's. Rare; O(n).
+        s = new StudySession(s.study, await listObservations(id));
+        ref.current = s;
+        setSession(s);
+      } else {
+        records.forEach((r, i) => {
+          const b = s.apply(r);
+          if (i === 0) before = b;
+        });
+      }
+      setVersion((v) => v + 1);
+      return { record: records.at(-1) as ObservationRecord, before };
+    },
+    [id],
+  );
 
   const need = () => {
     if (!ref.current) throw new Error('The study is still loading.');
