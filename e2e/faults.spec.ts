@@ -140,7 +140,10 @@ test.describe('browser killed', () => {
   });
 });
 
-test('two tabs: entries from both land in order', async ({ context, page }) => {
+test('two tabs: entries from both land in order, and a tab that saves shows them all', async ({
+  context,
+  page,
+}) => {
   await page.goto('/');
   await waitForServiceWorker(page);
   const id = await newStudy(page, 'Two phones? No: two tabs');
@@ -157,6 +160,8 @@ test('two tabs: entries from both land in order', async ({ context, page }) => {
   for (const [tab, v, seq] of order) {
     await typeAndSave(tab, v);
     await expectSaved(tab, seq);
+    // the tab that saved shows every entry on the phone, not only its own
+    await expect(tab.getByTestId('n')).toHaveText(String(seq));
   }
   // both at the same moment: both land, with different seq numbers
   await page.locator('#value-input').fill('5');
