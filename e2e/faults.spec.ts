@@ -16,12 +16,13 @@ import {
   isComplete,
   killBrowser,
   launchProfile,
+  openFresh,
   rawLog,
   readStore,
   studyIdOf,
   typeAndSave,
 } from './fixtures/browser.ts';
-import { createMeasurementStudy, waitForServiceWorker } from './helpers.ts';
+import { createMeasurementStudy } from './helpers.ts';
 import { BASE_URL } from './playwright.config.ts';
 
 const range = (n: number) => Array.from({ length: n }, (_, i) => i + 1);
@@ -61,8 +62,7 @@ test.describe('browser killed', () => {
     dir = mkdtempSync(join(tmpdir(), 'se-kill-'));
     let ctx = await launchProfile(dir);
     let page = await firstPage(ctx);
-    await page.goto('/');
-    await waitForServiceWorker(page);
+    await openFresh(page);
     const id = await newStudy(page, 'Lead in topsoil, plot 4');
     const shown = ['12,5', '13,25', '11,75', '14'];
     for (const [i, v] of shown.entries()) {
@@ -107,8 +107,7 @@ test.describe('browser killed', () => {
     dir = mkdtempSync(join(tmpdir(), 'se-offline-'));
     let ctx = await launchProfile(dir);
     let page = await firstPage(ctx);
-    await page.goto('/');
-    await waitForServiceWorker(page);
+    await openFresh(page);
     const id = await newStudy(page, 'Copper, ditch bank');
     for (const [i, v] of ['21,4', '19,8', '23,1', '20,6', '22,2'].entries()) {
       await typeAndSave(page, v);
@@ -144,8 +143,7 @@ test('two tabs: entries from both land in order, and a tab that saves shows them
   context,
   page,
 }) => {
-  await page.goto('/');
-  await waitForServiceWorker(page);
+  await openFresh(page);
   const id = await newStudy(page, 'Two phones? No: two tabs');
   const other = await context.newPage();
   await other.goto(`/#/s/${id}`);
@@ -193,8 +191,7 @@ test('a schema upgrade from another tab: this tab lets go of the database and as
   context,
   page,
 }) => {
-  await page.goto('/');
-  await waitForServiceWorker(page);
+  await openFresh(page);
   const id = await newStudy(page, 'Upgrade while open');
   await typeAndSave(page, '4,5');
   await expectSaved(page, 1);
@@ -250,8 +247,7 @@ test('storage full: a clear message, the entry not shown as saved, earlier entri
   try {
     let ctx = await launchProfile(dir);
     let page = await firstPage(ctx);
-    await page.goto('/');
-    await waitForServiceWorker(page);
+    await openFresh(page);
     const id = await newStudy(page, 'Nitrate, well 7');
     for (const [i, v] of ['3,1', '2,9', '3,4'].entries()) {
       await typeAndSave(page, v);

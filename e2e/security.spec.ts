@@ -7,7 +7,8 @@
  * (data: and blob: URLs stay on the phone).
  */
 import { type BrowserContext, expect, type Page, test } from '@playwright/test';
-import { createMeasurementStudy, keyIn, waitForServiceWorker } from './helpers.ts';
+import { openFresh } from './fixtures/browser.ts';
+import { createMeasurementStudy, keyIn } from './helpers.ts';
 
 /** The directives of the policy in the served index.html. */
 function cspOf(html: string): Map<string, string[]> {
@@ -161,8 +162,7 @@ test.describe('journey', () => {
     const origin = new URL(baseURL!).origin;
     const context = page.context();
     const w = await watch(context);
-    await page.goto('/');
-    await waitForServiceWorker(page);
+    await openFresh(page);
 
     // a study, entries with a note, every screen
     await createMeasurementStudy(page, { name: 'Outfall 3, dissolved zinc', unit: 'µg/L', margin: '2' });
