@@ -9,9 +9,11 @@
  * the command line uses; it replays the entries so the smoothed projection equals the app's.
  *
  * Guards, before any rule: `keep going` before `setup.min` observations, with one distinct value, with zero
- * spread (measurements and counts), and with all-zero counts. Pass/fail data are exempt from the one-value
- * and zero-spread guards because their intervals (Wilson, exact…) do not rest on the sample SD: no defect
- * in 300 items is a legitimate, decidable outcome (the minimum still applies).
+ * spread (measurements and counts), and with all-zero counts. Pass/fail items: while every item so far has
+ * the same outcome, a margin, relative or precision target is never `enough` (reason `one-distinct-value`,
+ * with a message pointing to a limit target), but a limit target may still be decided: no defect in 300
+ * items is the zero-acceptance demonstration of METHODS §3.3 (`below limit` by the exact bound
+ * 1 − α^(1/n)); the minimum still applies.
  *
  * Smoothing of "how many more": once n ≥ min, the projected total is clamped to 0.5–1.5 × the previous
  * entry's projected total when the previous assessment is passed in (`options.previous`); `details`
@@ -127,10 +129,10 @@ export function assessSummary(
   const model = modelFor(summary, setup);
   const target = setup.target;
   const sided = effectiveSided(setup, model.estimate);
-  // the model is built fresh per call, so its details and warnings are extended in place (copying a
-  // dictionary-shaped object per entry cost ~10× the rest of the per-entry path)
-  const details: Assessment['details'] = model.details;
-  const warnings = model.warnings;
+  // details and warnings are built once here and extended in place (copying a dictionary-shaped object
+  // per entry cost ~10× the rest of the per-entry path)
+  const details: Assessment['details'] = model.details();
+  const warnings = model.warnings();
   if (setup.target?.kind === 'limit' && setup.sided === 'two') details.sidedChosen = sided;
 
   let interval: Interval | null = model.intervalAt ? model.intervalAt(setup.level, sided) : null;

@@ -14,6 +14,13 @@ import { chiSquareQuantile, normalQuantile, studentTQuantile } from './distribut
 
 const MAX_ENTRIES = 200_000;
 
+/** Numerical inversions done so far (cache misses), for tests that check the per-entry path's cost. */
+let misses = 0;
+/** Number of quantiles computed rather than looked up since the module was loaded. */
+export function quantileCacheMisses(): number {
+  return misses;
+}
+
 function memo2(fn: (p: number, df: number) => number): (p: number, df: number) => number {
   const byP = new Map<number, Map<number, number>>();
   let size = 0;
@@ -26,6 +33,7 @@ function memo2(fn: (p: number, df: number) => number): (p: number, df: number) =
     const hit = byDf.get(df);
     if (hit !== undefined) return hit;
     const q = fn(p, df);
+    misses++;
     if (size >= MAX_ENTRIES) {
       byP.clear();
       size = 0;
@@ -49,6 +57,7 @@ export function cachedNormalQuantile(p: number): number {
   const hit = normalCache.get(p);
   if (hit !== undefined) return hit;
   const q = normalQuantile(p);
+  misses++;
   if (normalCache.size >= MAX_ENTRIES) normalCache.clear();
   normalCache.set(p, q);
   return q;

@@ -50,10 +50,10 @@ export class RunningSummary {
   }
 
   add(point: Point | number): this {
-    const p = typeof point === 'number' ? { value: point } : point;
-    const x = p.value;
+    // a plain number is the common case (every entry of replay): no wrapper object
+    const x = typeof point === 'number' ? point : point.value;
     if (!Number.isFinite(x)) throw new RangeError('RunningSummary.add requires a finite value');
-    if (p.censored) {
+    if (typeof point !== 'number' && point.censored) {
       this.censored++;
       this.censoredValues.push(x);
       return this;

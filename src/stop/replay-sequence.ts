@@ -19,7 +19,7 @@
  * @example replaySequence([9.8, 10.1, …], setup) // { stoppedAt: 23, estimate: 10.02, lower: 9.6, upper: 10.4, verdict: 'enough' }
  */
 import { assessSummary, checkTarget } from '../assess.ts';
-import type { AnalysisSetup, Sided, VerdictStatus } from '../model/types.ts';
+import type { AnalysisSetup, Sided, Target, VerdictStatus } from '../model/types.ts';
 import { countModel } from '../stats/kinds/count.ts';
 import type { KindModel } from '../stats/kinds/kind-model.ts';
 import { measurementModel } from '../stats/kinds/measurement.ts';
@@ -72,6 +72,21 @@ export function replaySequence(
   const target = setup.target;
   const sidedSetups: Partial<Record<Sided, AnalysisSetup>> = {};
   let stoppedAt: number | null = null;
+  // one context for the whole sequence, updated per entry (no per-entry closures or objects)
+  let sided: Sided = setup.sided;
+  const stats: RuleContext['stats'] = { total: 0, mean: 0, sd: 0, logMean: null, logSd: null };
+  const ctx: RuleContext = {
+    kind: setup.kind,
+    n: 0,
+    intervalAt: () => {
+      throw new RangeError('replaySequence: no interval yet');
+    },
+    check: (iv) => checkTarget(target as Target, iv, sided),
+    stats,
+    values: seen,
+    verdictOnly: true,
+    stopOnly: true,
+  };
   for (let i = 0; i < values.length; i++) {
     const v = values[i] as number;
     summary.add(v);
@@ -92,27 +107,19 @@ export function replaySequence(
       if (key >= 0) memo?.set(key, false);
       continue;
     }
-    const sided = effectiveSided(setup, model.estimate);
+    sided = effectiveSided(setup, model.estimate);
     let s = sidedSetups[sided];
     if (s === undefined) {
       s = sided === setup.sided ? setup : { ...setup, sided };
       sidedSetups[sided] = s;
     }
-    const ctx: RuleContext = {
-      kind: setup.kind,
-      n,
-      intervalAt: model.intervalAt,
-      check: (iv) => checkTarget(target, iv, sided),
-      stats: {
-        total: summary.total,
-        mean: summary.mean,
-        sd: summary.sd,
-        logMean: summary.positive === n ? summary.logMean : null,
-        logSd: summary.positive === n && n >= 2 ? summary.logSd : null,
-      },
-      values: seen,
-      verdictOnly: true,
-    };
+    ctx.n = n;
+    ctx.intervalAt = model.intervalAt;
+    stats.total = summary.total;
+    stats.mean = summary.mean;
+    stats.sd = summary.sd;
+    stats.logMean = summary.positive === n ? summary.logMean : null;
+    stats.logSd = summary.positive === n && n >= 2 ? summary.logSd : null;
     const stops = decide(ctx, s).status !== 'keep going';
     if (key >= 0) memo?.set(key, stops);
     if (stops) {

@@ -90,22 +90,27 @@ export function sprtRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
       ruleLabel: label,
     };
   const lines = sprtBoundaries(model);
+  const maxN = sprtMaxN(setup, model);
   const n = ctx.n;
   const S = model.family === 'lognormal' ? n * (ctx.stats.logMean as number) : ctx.stats.total;
   const acceptAt = -lines.h0 + lines.slope * n;
   const rejectAt = lines.h1 + lines.slope * n;
-  const maxN = sprtMaxN(setup, model);
   let status: VerdictStatus = 'keep going';
-  let message = `Keep going: the running statistic ${S.toFixed(3)} lies between ${acceptAt.toFixed(3)} and ${rejectAt.toFixed(3)}.`;
-  if (S <= acceptAt) {
-    status = 'below limit';
-    message = 'The evidence says below the limit (lower decision line reached).';
-  } else if (S >= rejectAt) {
-    status = 'above limit';
-    message = 'The evidence says above the limit (upper decision line reached).';
-  } else if (n >= maxN) {
-    status = S <= lines.slope * n ? 'below limit' : 'above limit';
+  if (S <= acceptAt) status = 'below limit';
+  else if (S >= rejectAt) status = 'above limit';
+  else if (n >= maxN) status = S <= lines.slope * n ? 'below limit' : 'above limit';
+  // replay's loop reads only the status of a `keep going` entry: no interval, no formatted message
+  if (status === 'keep going' && ctx.stopOnly)
+    return { status, interval: NO_INTERVAL, reportedLevel: setup.level, message: '', ruleLabel: label };
+  let message: string;
+  if (S <= acceptAt) message = 'The evidence says below the limit (lower decision line reached).';
+  else if (S >= rejectAt) message = 'The evidence says above the limit (upper decision line reached).';
+  else if (n >= maxN)
     message = `Planned maximum of ${maxN} reached: decided by the middle line (weaker evidence than a line crossing).`;
-  }
+  else
+    message = `Keep going: the running statistic ${S.toFixed(3)} lies between ${acceptAt.toFixed(3)} and ${rejectAt.toFixed(3)}.`;
   return { status, interval: nominal(), reportedLevel: setup.level, message, ruleLabel: label };
 }
+
+/** Placeholder interval of a stop-only `keep going` decision (never shown). */
+const NO_INTERVAL = { estimate: Number.NaN, lower: Number.NaN, upper: Number.NaN };

@@ -31,7 +31,7 @@ import type { AnalysisSetup, VerdictStatus } from '../model/types.ts';
 import { greenStopLine } from './green-stop-line.ts';
 import { kunoStopLine } from './kuno-stop-line.ts';
 import type { Interval, RuleContext, RuleDecision } from './rule-context.ts';
-import { standardLevel } from './standard-level.ts';
+import { STANDARD_ALPHA_RATIO, standardGroup, standardLevel } from './standard-level.ts';
 import { statusOf } from './status-of.ts';
 
 /** Chow–Robbins count-unit floor c (squared count units per plot). */
@@ -48,9 +48,41 @@ function withCountFloor(interval: Interval, n: number, sd: number): Interval {
   return out;
 }
 
+/**
+ * Stop-only prefilter (replay's loop, the benchmark): the internal level of counts and log-scale measurements
+ * moves with the data, so its quantile is a fresh numerical inversion per entry. Every level the rule can
+ * use is at least 1 − ρ_max·α (ρ ≤ the group's ρ), and a wider interval can only meet a target less
+ * (margin, relative, precision) or decide a limit less, so when the interval at a level just below that
+ * floor (a cached quantile) does not meet the target, neither does the rule's own interval: keep going.
+ * The floor is lowered by a relative 1e-6 of α so that rounding in the quantile functions cannot turn the
+ * comparison. Returns null when the prefilter cannot settle the verdict.
+ */
+function quickKeepGoing(ctx: RuleContext, setup: AnalysisSetup, level: number): Interval | null {
+  const group = standardGroup(setup);
+  if (group !== 'count' && group !== 'measurement-log') return null;
+  const floorLevel = 1 - STANDARD_ALPHA_RATIO[group] * (1 - setup.level);
+  if (level === floorLevel) return null; // already the cached quantile
+  const below = 1 - STANDARD_ALPHA_RATIO[group] * (1 - setup.level) * (1 + 1e-6);
+  let interval = ctx.intervalAt(below, setup.sided);
+  if (ctx.kind === 'count') interval = withCountFloor(interval, ctx.n, ctx.stats.sd);
+  return statusOf(ctx.check(interval)) === 'keep going' ? interval : null;
+}
+
 export function standardRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
   const dispersion = ctx.kind === 'count' && ctx.stats.mean > 0 ? ctx.stats.sd ** 2 / ctx.stats.mean : null;
   const level = standardLevel(setup, ctx.stats.logSd, dispersion, ctx.n);
+  const stopLine = ctx.kind === 'count' && setup.target?.kind === 'precision' && setup.planning !== undefined;
+  if (ctx.stopOnly && !stopLine) {
+    const quick = quickKeepGoing(ctx, setup, level);
+    if (quick !== null)
+      return {
+        status: 'keep going',
+        interval: quick,
+        reportedLevel: level,
+        message: 'The interval does not meet the target yet.',
+        ruleLabel: 'standard',
+      };
+  }
   let interval = ctx.intervalAt(level, setup.sided);
   if (ctx.kind === 'count') interval = withCountFloor(interval, ctx.n, ctx.stats.sd);
   const label = `standard (checked and shown at ${(level * 100).toFixed(1)} % to allow for looking after every entry)`;

@@ -34,6 +34,9 @@ import type { Interval, RuleContext, RuleDecision } from './rule-context.ts';
 import { statusOf } from './status-of.ts';
 import { steinTwoStage } from './stein-two-stage.ts';
 
+/** Placeholder interval of a stop-only `keep going` decision (never shown). */
+const NO_INTERVAL: Interval = { estimate: Number.NaN, lower: Number.NaN, upper: Number.NaN };
+
 /** Chow–Robbins count-unit floor added to the pilot variance of counts. */
 const COUNT_FLOOR = 1;
 
@@ -154,6 +157,15 @@ export function strictRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision
       ruleLabel: label,
     };
   const plan = twoStagePlan(ctx.values, setup);
+  if ((plan === null || ctx.n < plan.total) && ctx.stopOnly)
+    // replay's loop reads only the status of a `keep going` entry (rule-context.ts)
+    return {
+      status: 'keep going',
+      interval: NO_INTERVAL,
+      reportedLevel: setup.level,
+      message: '',
+      ruleLabel: label,
+    };
   if (plan === null || ctx.n < plan.total)
     return {
       status: 'keep going',

@@ -13,7 +13,13 @@ import { cachedNormalQuantile } from '../quantile-cache.ts';
 import { quasiPoissonInterval } from '../quasi-poisson-interval.ts';
 import type { RunningSummary } from '../running-summary.ts';
 import { studentTInterval } from '../student-t-interval.ts';
-import { type KindModel, type Projection, quantileProbability, sidedWords } from './kind-model.ts';
+import {
+  type Details,
+  type KindModel,
+  type Projection,
+  quantileProbability,
+  sidedWords,
+} from './kind-model.ts';
 
 const LABELS: Record<CountMethod, string> = {
   t: 'Student t on the counts',
@@ -27,38 +33,17 @@ export function countModel(summary: RunningSummary, setup: AnalysisSetup): KindM
   const total = Math.round(summary.total);
   const variance = summary.variance;
   const population = setup.population;
-  const warnings: string[] = [];
-  const details: KindModel['details'] = { total, meanPerPlot: n >= 1 ? m : null, distinct: summary.distinct };
-  let index: number | null = null;
-  let overdispersed = false;
-  if (n >= 2 && m > 0) {
-    const test = dispersionIndexTest(n, m, variance);
-    index = test.index;
-    overdispersed = test.overdispersed;
-    details.sd = Math.sqrt(variance);
-    details.dispersionIndex = test.index;
-    details.dispersionStatistic = test.statistic;
-    details.dispersionCritical = test.critical;
-    details.overdispersed = test.overdispersed;
-    if (variance > m) details.negBinomialK = (m * m) / (variance - m);
-  }
+  const distinct = summary.distinct;
+  const test = n >= 2 && m > 0 ? dispersionIndexTest(n, m, variance) : null;
+  const index: number | null = test === null ? null : test.index;
+  const overdispersed = test?.overdispersed === true;
   let method: CountMethod;
   if (setup.method !== undefined) method = setup.method as CountMethod;
-  else {
-    method = overdispersed ? 't' : 'poisson-exact';
-    details.methodChoice = overdispersed
-      ? 'Student t: the counts are more clumped than Poisson (index-of-dispersion test, 5 %)'
-      : 'exact Poisson: the counts are not significantly more clumped than Poisson (index-of-dispersion test, 5 %)';
-  }
-  if (method === 'poisson-exact' && overdispersed)
-    warnings.push(
-      `The counts are clumped (dispersion index ${index?.toFixed(2)}); the exact Poisson interval is too narrow for them.`,
-    );
-  if (method !== 't' && population !== undefined)
-    warnings.push(
-      'Only the Student t method applies the finite population correction; this interval ignores it.',
-    );
+  else method = overdispersed ? 't' : 'poisson-exact';
   const phi = Math.max(1, index ?? 1);
+  const sdCounts = Math.sqrt(variance);
+  const tStats = { n, mean: m, sd: sdCounts };
+  const poissonSe = n >= 1 ? Math.sqrt(m / n) : 0;
 
   const intervalAt =
     n < 1 || (method === 't' && n < 2)
@@ -66,22 +51,55 @@ export function countModel(summary: RunningSummary, setup: AnalysisSetup): KindM
       : (level: number, sided: Sided) => {
           if (method === 'poisson-exact') {
             const r = garwoodInterval(total, n, level, sided);
-            return { ...r, se: Math.sqrt(m / n) };
+            return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: poissonSe };
           }
           if (method === 'quasi-poisson') return quasiPoissonInterval(total, n, phi, level, sided);
-          const r = studentTInterval({ n, mean: m, sd: Math.sqrt(variance) }, level, sided, population);
+          const r = studentTInterval(tStats, level, sided, population);
           return { estimate: r.estimate, lower: Math.max(0, r.lower), upper: r.upper, se: r.se };
         };
 
-  if (setup.plotArea !== undefined && n >= 1) {
-    details.plotArea = setup.plotArea;
-    details.density = m / setup.plotArea;
-    if (intervalAt) {
-      const iv = intervalAt(setup.level, setup.sided);
-      details.densityLower = Number.isFinite(iv.lower) ? iv.lower / setup.plotArea : null;
-      details.densityUpper = Number.isFinite(iv.upper) ? iv.upper / setup.plotArea : null;
+  /** The figures shown with the assessment — built on first read (replay and the benchmark never read them). */
+  const buildDetails = (): Details => {
+    const details: Details = {
+      total,
+      meanPerPlot: n >= 1 ? m : null,
+      distinct,
+    };
+    if (test !== null) {
+      details.sd = sdCounts;
+      details.dispersionIndex = test.index;
+      details.dispersionStatistic = test.statistic;
+      details.dispersionCritical = test.critical;
+      details.overdispersed = test.overdispersed;
+      if (variance > m) details.negBinomialK = (m * m) / (variance - m);
     }
-  }
+    if (setup.method === undefined)
+      details.methodChoice = overdispersed
+        ? 'Student t: the counts are more clumped than Poisson (index-of-dispersion test, 5 %)'
+        : 'exact Poisson: the counts are not significantly more clumped than Poisson (index-of-dispersion test, 5 %)';
+    if (setup.plotArea !== undefined && n >= 1) {
+      details.plotArea = setup.plotArea;
+      details.density = m / setup.plotArea;
+      if (intervalAt) {
+        const iv = intervalAt(setup.level, setup.sided);
+        details.densityLower = Number.isFinite(iv.lower) ? iv.lower / setup.plotArea : null;
+        details.densityUpper = Number.isFinite(iv.upper) ? iv.upper / setup.plotArea : null;
+      }
+    }
+    return details;
+  };
+  const buildWarnings = (): string[] => {
+    const warnings: string[] = [];
+    if (method === 'poisson-exact' && overdispersed)
+      warnings.push(
+        `The counts are clumped (dispersion index ${index?.toFixed(2)}); the exact Poisson interval is too narrow for them.`,
+      );
+    if (method !== 't' && population !== undefined)
+      warnings.push(
+        'Only the Student t method applies the finite population correction; this interval ignores it.',
+      );
+    return warnings;
+  };
 
   const planning = setup.planning;
   let varianceModel: CountVarianceModel;
@@ -166,7 +184,7 @@ export function countModel(summary: RunningSummary, setup: AnalysisSetup): KindM
   let guard: KindModel['guard'] = null;
   if (n >= 1 && total === 0)
     guard = { reason: 'all-zero', message: 'Every count is zero so far; nothing to base a verdict on.' };
-  else if (n >= 1 && summary.distinct === 1)
+  else if (n >= 1 && distinct === 1)
     guard = {
       reason: 'one-distinct-value',
       message: 'Every count is the same; the spread cannot be judged yet.',
@@ -178,8 +196,8 @@ export function countModel(summary: RunningSummary, setup: AnalysisSetup): KindM
     estimate: n >= 1 ? m : null,
     intervalAt,
     guard,
-    details,
-    warnings,
+    details: buildDetails,
+    warnings: buildWarnings,
     project,
   };
 }

@@ -19,6 +19,9 @@ export interface Projection {
   basis: string;
 }
 
+/** The figures shown with an assessment (Assessment.details). */
+export type Details = Record<string, number | string | boolean | null>;
+
 export interface KindModel {
   /** Published name of the method actually used (CLI `method` field). */
   method: string;
@@ -28,8 +31,13 @@ export interface KindModel {
   intervalAt: ((level: number, sided: Sided) => Interval) | null;
   /** Kind-specific reason why no verdict other than `keep going` may be given, or null. */
   guard: { reason: GuardReason; message: string } | null;
-  details: Record<string, number | string | boolean | null>;
-  warnings: string[];
+  /**
+   * The figures shown with the assessment, built when called (a fresh object each call; assess extends
+   * it). Replay and the benchmark never call it, so the per-entry path builds no details.
+   */
+  details(): Details;
+  /** The kind's warnings (a fresh array each call; assess appends to it). */
+  warnings(): string[];
   /** Raw projection of the total n for the target (null when it cannot be made). */
   project(target: Target, level: number, sided: Sided): Projection | null;
 }

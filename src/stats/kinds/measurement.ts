@@ -11,7 +11,13 @@ import { landInterval } from '../land-interval.ts';
 import { modifiedCoxInterval } from '../modified-cox-interval.ts';
 import type { RunningSummary } from '../running-summary.ts';
 import { studentTInterval } from '../student-t-interval.ts';
-import { type KindModel, type Projection, quantileProbability, sidedWords } from './kind-model.ts';
+import {
+  type Details,
+  type KindModel,
+  type Projection,
+  quantileProbability,
+  sidedWords,
+} from './kind-model.ts';
 
 const LABELS: Record<MeasurementMethod, string> = {
   t: 'Student t',
@@ -38,17 +44,23 @@ export function measurementModel(summary: RunningSummary, setup: AnalysisSetup):
   if ((method === 'cox' || method === 'land') && population !== undefined)
     warnings.push('The log-scale methods ignore the population size (no finite population correction).');
   const logStats = { n, logMean: summary.logMean, logSd: summary.logSd };
-  const details: KindModel['details'] = {
-    sd: n >= 2 ? sd : null,
-    se: n >= 2 ? sd / Math.sqrt(n) : null,
-    cv: n >= 2 && mean !== 0 ? sd / Math.abs(mean) : null,
-    distinct: summary.distinct,
+  const distinct = summary.distinct;
+  const allPositive = summary.positive === n;
+  /** The figures shown with the assessment — built on first read (replay and the benchmark never read them). */
+  const buildDetails = (): Details => {
+    const details: Details = {
+      sd: n >= 2 ? sd : null,
+      se: n >= 2 ? sd / Math.sqrt(n) : null,
+      cv: n >= 2 && mean !== 0 ? sd / Math.abs(mean) : null,
+      distinct,
+    };
+    if (allPositive && n >= 2) {
+      details.logMean = logStats.logMean;
+      details.logSd = logStats.logSd;
+    }
+    if (population !== undefined) details.population = population;
+    return details;
   };
-  if (summary.positive === n && n >= 2) {
-    details.logMean = summary.logMean;
-    details.logSd = summary.logSd;
-  }
-  if (population !== undefined) details.population = population;
   if (n >= 2 && mean > 0 && sd / mean > 1 && method === 't')
     warnings.push(
       'The data are strongly skewed (CV above 1): the Student t interval may be too narrow; consider the modified Cox or Land method for positive data.',
@@ -140,7 +152,7 @@ export function measurementModel(summary: RunningSummary, setup: AnalysisSetup):
   };
 
   let guard: KindModel['guard'] = null;
-  if (n >= 1 && summary.distinct === 1)
+  if (n >= 1 && distinct === 1)
     guard = {
       reason: 'one-distinct-value',
       message: 'Every value is the same; the spread cannot be judged yet.',
@@ -157,8 +169,8 @@ export function measurementModel(summary: RunningSummary, setup: AnalysisSetup):
     estimate,
     intervalAt,
     guard,
-    details,
-    warnings,
+    details: buildDetails,
+    warnings: () => warnings,
     project,
   };
 }

@@ -13,7 +13,13 @@ import { cachedNormalQuantile } from '../quantile-cache.ts';
 import type { RunningSummary } from '../running-summary.ts';
 import { wilsonCcInterval } from '../wilson-cc-interval.ts';
 import { wilsonInterval } from '../wilson-interval.ts';
-import { type KindModel, type Projection, quantileProbability, sidedWords } from './kind-model.ts';
+import {
+  type Details,
+  type KindModel,
+  type Projection,
+  quantileProbability,
+  sidedWords,
+} from './kind-model.ts';
 
 const LABELS: Record<PassFailMethod | 'hypergeometric', string> = {
   wilson: 'Wilson score',
@@ -38,25 +44,33 @@ export function passFailModel(summary: RunningSummary, setup: AnalysisSetup): Ki
   const lot = setup.population;
   const requested = (setup.method ?? 'wilson') as PassFailMethod;
   const warnings: string[] = [];
-  const details: KindModel['details'] = { counted: x, items: n };
   let method: PassFailMethod | 'hypergeometric' = requested;
   if (lot !== undefined) {
     method = 'hypergeometric';
-    details.lot = lot;
     if (setup.method !== undefined && setup.method !== 'clopper-pearson')
       warnings.push(
         `With a lot size the exact hypergeometric bounds are used instead of ${LABELS[requested]}.`,
       );
   }
-  const alpha = 1 - setup.level;
-  if (n >= 1 && x === 0) {
-    const exact = 1 - alpha ** (1 / n);
-    details.zeroUpperBound = exact;
-    details.ruleOfThree = `No counted outcome in ${n} items: the rate is likely below ${(exact * 100).toPrecision(3)} % (${Math.round(setup.level * 100)} % one-sided exact bound 1 − α^(1/n); the "rule of three" 3/n = ${((3 / n) * 100).toPrecision(3)} % approximates it at 95 %).`;
-  }
+  /** The figures shown with the assessment — built on first read (replay and the benchmark never read them). */
+  const buildDetails = (): Details => {
+    const details: Details = { counted: x, items: n };
+    if (lot !== undefined) details.lot = lot;
+    if (n >= 1 && x === 0) {
+      const alpha = 1 - setup.level;
+      const exact = 1 - alpha ** (1 / n);
+      details.zeroUpperBound = exact;
+      details.ruleOfThree = `No counted outcome in ${n} items: the rate is likely below ${(exact * 100).toPrecision(3)} % (${Math.round(setup.level * 100)} % one-sided exact bound 1 − α^(1/n); the "rule of three" 3/n = ${((3 / n) * 100).toPrecision(3)} % approximates it at 95 %).`;
+    }
+    return details;
+  };
   // one-sided upper bound with nothing counted: the exact bound 1 − α^{1/n} (= Clopper–Pearson one-sided)
   const zeroExact = (sided: Sided) => lot === undefined && x === 0 && sided === 'upper';
   let labelMethod = method;
+  const fpc = lot === undefined ? 1 : Math.sqrt(Math.max(0, (lot - n) / Math.max(1, lot - 1)));
+  // the SE (Agresti–Coull, two-sided at the level asked) depends only on the level: kept for the last level
+  let seLevel = Number.NaN;
+  let seAtLevel = 0;
   const intervalAt =
     n < 1
       ? null
@@ -65,9 +79,11 @@ export function passFailModel(summary: RunningSummary, setup: AnalysisSetup): Ki
           if (method === 'hypergeometric') r = hypergeometricBounds(x, n, lot as number, level, sided);
           else if (zeroExact(sided)) r = clopperPearsonInterval(0, n, level, 'upper');
           else r = FNS[method](x, n, level, sided);
-          const fpc = lot === undefined ? 1 : Math.sqrt(Math.max(0, (lot - n) / Math.max(1, lot - 1)));
-          const ac = agrestiCoullInterval(x, n, level, 'two');
-          return { ...r, se: ac.se * fpc };
+          if (level !== seLevel) {
+            seAtLevel = agrestiCoullInterval(x, n, level, 'two').se * fpc;
+            seLevel = level;
+          }
+          return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: seAtLevel };
         };
   if (zeroExact(setup.sided) || (setup.target?.kind === 'limit' && x === 0 && lot === undefined))
     labelMethod = 'clopper-pearson';
@@ -115,6 +131,16 @@ export function passFailModel(summary: RunningSummary, setup: AnalysisSetup): Ki
     };
   };
 
+  // Never `enough` on one outcome only: with every item the same, a margin, relative or precision target
+  // says little (Wilson's width at x = 0 shrinks like 1/n whatever the true rate); the decision against a
+  // limit stays open — no defect in n items is the zero-acceptance demonstration (METHODS §3.3).
+  let guard: KindModel['guard'] = null;
+  if (n >= 1 && (x === 0 || x === n) && setup.target !== undefined && setup.target.kind !== 'limit')
+    guard = {
+      reason: 'one-distinct-value',
+      message: `All ${n} items so far have the same outcome (${x === 0 ? 'none' : 'all'} counted), so the interval's width says little yet. To show that the counted outcome is rare, set a limit target (a zero-defect demonstration) instead.`,
+    };
+
   return {
     method: labelMethod,
     label: (level, sided) =>
@@ -123,9 +149,9 @@ export function passFailModel(summary: RunningSummary, setup: AnalysisSetup): Ki
         : `${LABELS[method]}, ${sidedWords(level, sided)}`,
     estimate: n >= 1 ? x / n : null,
     intervalAt,
-    guard: null,
-    details,
-    warnings,
+    guard,
+    details: buildDetails,
+    warnings: () => warnings,
     project,
   };
 }

@@ -146,6 +146,56 @@ describe('no stop on zero spread, all-zero counts or one distinct value', () => 
   });
 });
 
+describe('pass/fail with one outcome only: never `enough`, but a limit may be decided (METHODS §3.3)', () => {
+  const pf = cases[3]!.setup;
+  for (const rule of ['naive', 'standard', 'strict'] as const) {
+    it(`${rule}: all-pass or all-fail items never meet a margin target; the first stop comes after the first other outcome`, () => {
+      const setup = { ...pf, rule };
+      for (const v of [0, 1]) {
+        // Without the guard, Wilson's 95 % half-width with none counted is below 0.08 from n ≈ 21 on.
+        const same = new Array(300).fill(v);
+        expect(replaySequence(same, setup).stoppedAt).toBeNull();
+        const s = RunningSummary.of(same);
+        const a = assessSummary(s, setup, same);
+        expect(a.verdict.status).toBe('keep going');
+        if (a.verdict.status === 'keep going') {
+          expect(a.verdict.reason).toBe('one-distinct-value');
+          expect(a.verdict.message).toMatch(/limit target/);
+        }
+      }
+      for (const relOrPrec of [
+        { kind: 'relative', value: 0.5 },
+        { kind: 'precision', value: 0.2 },
+      ] as const) {
+        const ones = new Array(300).fill(1);
+        expect(replaySequence(ones, { ...setup, target: relOrPrec }).stoppedAt).toBeNull();
+      }
+      const rng = createRng(11);
+      for (let r = 0; r < 30; r++) {
+        const values = [
+          ...new Array(60).fill(0),
+          ...Array.from({ length: 600 }, () => bernoulliVariate(rng, 0.2)),
+        ];
+        const fast = replaySequence(values, setup);
+        expect(fast.stoppedAt).toBe(firstStopByAssess(values, setup));
+        if (fast.stoppedAt !== null) expect(fast.stoppedAt).toBeGreaterThan(values.indexOf(1));
+      }
+    });
+  }
+  it('zero-acceptance: no defect in n items is `below limit` 2 % once 1 − α^(1/n) < 0.02 — 149 items at 95 % (METHODS §3.3, ⌈ln 0.05 / ln 0.98⌉ = 149) [memory; derived]', () => {
+    const setup: AnalysisSetup = { ...pf, rule: 'naive', target: { kind: 'limit', value: 0.02 } };
+    const status = (n: number) =>
+      assessSummary(RunningSummary.of(new Array(n).fill(0)), setup).verdict.status;
+    expect(status(148)).toBe('keep going');
+    expect(status(149)).toBe('below limit');
+    expect(replaySequence(new Array(300).fill(0), setup).stoppedAt).toBe(149);
+    // standard: checked at 1 − 0.9·0.05 = 95.5 %, ⌈ln 0.045 / ln 0.98⌉ = 154 [derived]
+    const std = { ...setup, rule: 'standard' as const };
+    expect(replaySequence(new Array(300).fill(0), std).stoppedAt).toBe(154);
+    expect(firstStopByAssess(new Array(300).fill(0), std)).toBe(154);
+  });
+});
+
 describe('standard rule level', () => {
   it('is above the nominal level and grows with the log spread and the dispersion', () => {
     for (const level of [0.8, 0.9, 0.95, 0.99]) {
