@@ -21,10 +21,12 @@ export type * from './model/records.ts';
 export type * from './model/types.ts';
 export { fixedPointSampleSize } from './plan/fixed-point-sample-size.ts';
 export { kupperHafnerSampleSize } from './plan/kupper-hafner-assurance.ts';
+export { proportionSampleSize } from './plan/proportion-sample-size.ts';
 export { agrestiCoullInterval } from './stats/agresti-coull-interval.ts';
 export { chebyshevBound } from './stats/chebyshev-bound.ts';
 export { clopperPearsonInterval } from './stats/clopper-pearson-interval.ts';
 export { dispersionIndexTest } from './stats/dispersion-index-test.ts';
+export { normalQuantile } from './stats/distributions.ts';
 export { garwoodInterval } from './stats/garwood-poisson-interval.ts';
 export { hypergeometricBounds } from './stats/hypergeometric-bounds.ts';
 export { jeffreysInterval } from './stats/jeffreys-interval.ts';
@@ -35,3 +37,13 @@ export { RunningSummary } from './stats/running-summary.ts';
 export { studentTInterval } from './stats/student-t-interval.ts';
 export { wilsonCcInterval } from './stats/wilson-cc-interval.ts';
 export { wilsonInterval } from './stats/wilson-interval.ts';
+export {
+  ruleWarnings,
+  type SprtModel,
+  sprtBoundaries,
+  sprtFixedSize,
+  sprtMaxN,
+  sprtModelOf,
+  sprtOperatingCharacteristic,
+  strictCost,
+} from './stop/index.ts';

@@ -1,6 +1,7 @@
 /** The field screen: verdict on top, the chart, the backup/position line, the entry pad at the bottom. */
-import { useEffect, useState } from 'preact/hooks';
+import { useEffect, useMemo, useState } from 'preact/hooks';
 import type { Assessment, ObservationRecord } from '../../core.ts';
+import { loadedCore } from '../../core-loader.ts';
 import { DesignBar, useDesignEntry } from '../../design/field-design.tsx';
 import { settings, updateSettings } from '../../state/app-state.ts';
 import { signalVerdictChange } from '../../state/feedback.ts';
@@ -39,6 +40,8 @@ function Field({ view }: { view: StudyView }) {
   const pos = useStore(position);
   const [undo, setUndo] = useState<ObservationRecord | null>(null);
   const design = useDesignEntry(study, a);
+  // the benchmark's known shortfalls for this setup (ruleWarnings); the core is loaded before this screen
+  const ruleCautions = useMemo(() => loadedCore().ruleWarnings(study.setup), [study.setup]);
   useEffect(() => {
     if (s.position) startPosition();
     return () => stopPosition();
@@ -73,6 +76,16 @@ function Field({ view }: { view: StudyView }) {
           <p class="warn">This study is archived: bring it back from the list to add entries.</p>
         )}
         <VerdictPanel a={a} study={study} paceMs={session.pace.medianMs} />
+        {ruleCautions.length > 0 && (
+          <details class="rule-cautions" data-testid="field-rule-warnings">
+            <summary>Known limits of this rule ({ruleCautions.length})</summary>
+            <ul class="warnings">
+              {ruleCautions.map((w) => (
+                <li key={w}>{w}</li>
+              ))}
+            </ul>
+          </details>
+        )}
         <Chart
           series={session.series}
           current={a}

@@ -7,6 +7,7 @@ import type { ComponentChildren } from 'preact';
 import { useEffect, useState } from 'preact/hooks';
 import type { DataKind, RuleName, StudySetup, Target } from '../../core.ts';
 import { formatStrata } from '../../core-light.ts';
+import { loadCore } from '../../core-loader.ts';
 import { strataFromFields } from '../../design/strata-setup.tsx';
 import { parseMeasurement } from '../../input/parse.ts';
 import { device } from '../../state/app-state.ts';
@@ -14,6 +15,7 @@ import type { StoredStudy } from '../../storage/schema.ts';
 import { createStudy, getStudy } from '../../storage/studies.ts';
 import { CAUTIONS } from '../cautions.ts';
 import { TopBar } from '../components/chrome.tsx';
+import { RulePreview } from '../components/rule-preview.tsx';
 import { go, href } from '../router.ts';
 
 type TargetKind = Target['kind'];
@@ -45,6 +47,8 @@ interface Form {
   /** Strata as name:weight pairs and efforts per entry (web/design, issue 7). */
   strata: string;
   strataCosts: string;
+  /** Planning CV for the limit decision's figures on measurements (setup screen only, not stored). */
+  planningCv: string;
   ack: boolean;
 }
 
@@ -75,6 +79,7 @@ const EMPTY: Form = {
   taylorB: '',
   strata: '',
   strataCosts: '',
+  planningCv: '1',
   ack: false,
 };
 
@@ -236,6 +241,23 @@ export function buildSetup(f: Form): { setup: StudySetup; name: string } | { err
   return Object.keys(e).length ? { errors: e } : { setup, name };
 }
 
+/**
+ * The setup as far as the statistics go, for the live rule figures: the fields that only label the study
+ * (name, unit, counted outcome, the limit's source and date, the cautions tick) are filled with stand-ins.
+ */
+export function previewSetup(f: Form): StudySetup | null {
+  const r = buildSetup({
+    ...f,
+    name: 'preview',
+    unit: f.unit.trim() || 'unit',
+    outcome: f.outcome.trim() || 'outcome',
+    limitSource: 'preview',
+    limitDate: '2000-01-01',
+    ack: true,
+  });
+  return 'setup' in r ? r.setup : null;
+}
+
 function Help(props: { children: ComponentChildren }) {
   return <p class="help">{props.children}</p>;
 }
@@ -246,6 +268,16 @@ export function NewStudyScreen(props: { from?: string; mode?: 'duplicate' | 'cha
   const [errors, setErrors] = useState<Errors>({});
   const [saveError, setSaveError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
+  const [core, setCore] = useState<Awaited<ReturnType<typeof loadCore>> | null>(null);
+  useEffect(() => {
+    let live = true;
+    void loadCore().then((c) => {
+      if (live) setCore(c);
+    });
+    return () => {
+      live = false;
+    };
+  }, []);
   useEffect(() => {
     if (!props.from) return;
     void getStudy(props.from).then((s) => {
@@ -461,6 +493,18 @@ export function NewStudyScreen(props: { from?: string; mode?: 'duplicate' | 'cha
             })}
           </fieldset>
         )}
+        {f.rule === 'sprt' &&
+          f.kind === 'measurement' &&
+          text('planningCv', 'Expected spread for these figures (CV)', {
+            mode: 'decimal',
+            help: 'Standard deviation ÷ mean from earlier sampling (1 if unknown); used only for the figures below.',
+          })}
+        <RulePreview
+          core={core}
+          setup={previewSetup(f)}
+          planningCv={Number(f.planningCv.replace(',', '.'))}
+          unit={f.kind === 'measurement' ? f.unit : ''}
+        />
         {text('population', 'Lot or population size (optional)', {
           mode: 'numeric',
           help: 'For a finite lot, e.g. 400 items: fewer samples are needed when you sample a large part of it.',
