@@ -58,8 +58,8 @@ export const MEASURED_COVERAGE: readonly CoverageFigure[] = [
   { rule: 'naive', kind: 'count', cells: 6, minPercent: 89.2, maxPercent: 95.6 },
   { rule: 'standard', kind: 'count', cells: 6, minPercent: 92.7, maxPercent: 96.2 },
   { rule: 'strict', kind: 'count', cells: 6, minPercent: 87.2, maxPercent: 95.7 },
-  { rule: 'naive', kind: 'pass-fail', cells: 6, minPercent: 93.8, maxPercent: 97.9 },
-  { rule: 'standard', kind: 'pass-fail', cells: 6, minPercent: 94.9, maxPercent: 98.1 },
+  { rule: 'naive', kind: 'pass-fail', cells: 6, minPercent: 93.8, maxPercent: 97.6 },
+  { rule: 'standard', kind: 'pass-fail', cells: 6, minPercent: 94.9, maxPercent: 97.7 },
   { rule: 'strict', kind: 'pass-fail', cells: 6, minPercent: 99.9, maxPercent: 100.0 },
 ];
 

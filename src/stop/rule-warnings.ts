@@ -43,6 +43,10 @@ export function ruleWarnings(setup: AnalysisSetup): string[] {
         "Clumped counts (many empty plots and a few crowded ones, negative-binomial k of 2 or less) with a loose target: when only about 25 plots are needed, the '95 %' interval at the stop held the mean in about 93 % of simulated surveys (92.7 % at k = 0.5). Set a larger minimum (20–30) for such organisms, or give Taylor's or Iwao's coefficients and a precision target to use a stop line.",
       );
   }
+  if (kind === 'pass-fail' && target !== undefined && target.kind !== 'limit')
+    w.push(
+      'No “enough” is given while every item so far has the same outcome, so with a rare outcome (about 2 %) the study runs on until the first one turns up: in simulations it took about 1.4 times the planned number of items. To show that an outcome is rare, decide against a limit instead (no counted outcome in enough items is a valid answer).',
+    );
   if (kind === 'pass-fail' && setup.min < 30 && (rule === 'standard' || rule === 'naive'))
     w.push(
       'For rare outcomes (under about 5 %), a minimum of 20–30 items is recommended before any verdict.',

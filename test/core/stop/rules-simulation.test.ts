@@ -218,6 +218,13 @@ describe('standard rule level', () => {
     expect(
       ruleWarnings({ kind: 'measurement', level: 0.95, sided: 'two', rule: 'naive', min: 10 }).join(' '),
     ).toMatch(/naive/);
+    // pass/fail with a margin target: the one-outcome guard's cost at a rare outcome (coverage.md,
+    // Bernoulli p = 0.02, n* = 100: mean n 1.40·n*); a limit target is not affected
+    const pf = { kind: 'pass-fail', level: 0.95, sided: 'two', rule: 'standard', min: 30 } as const;
+    expect(ruleWarnings({ ...pf, target: { kind: 'margin', value: 0.03 } }).join(' ')).toMatch(/1\.4 times/);
+    expect(ruleWarnings({ ...pf, target: { kind: 'limit', value: 0.03 } }).join(' ')).not.toMatch(
+      /1\.4 times/,
+    );
   });
 });
 
