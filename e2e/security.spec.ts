@@ -212,6 +212,9 @@ test.describe('journey', () => {
     await context.setOffline(false);
 
     expect(w.requests.length).toBeGreaterThan(5);
+    // the service worker's own fetches are in the record too: only its precaching asks for /index.html
+    // (the pages ask for / and the SW answers navigations from its cache)
+    expect(w.requests).toContain(`${origin}/index.html`);
     expect(foreign(w.requests, origin), 'requests that left the origin').toEqual([]);
     expect(w.violations, 'securitypolicyviolation events').toEqual([]);
     expect(w.consoleCsp, 'CSP console errors').toEqual([]);
