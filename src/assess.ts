@@ -16,8 +16,10 @@
  * 1 − α^(1/n)); the minimum still applies.
  *
  * Smoothing of "how many more": once n ≥ min, the projected total is clamped to 0.5–1.5 × the previous
- * entry's projected total when the previous assessment is passed in (`options.previous`); `details`
- * carries `moreSmoothed` and the raw figure `moreRawLikely` whenever the clamp acted.
+ * entry's raw (unclamped) projected total when the previous assessment is passed in (`options.previous`);
+ * `details` carries `moreSmoothed` and the raw figure `moreRawLikely` whenever the clamp acted. Because
+ * the clamp looks one entry back only, the result after n entries needs just the assessments at n − 1
+ * and n (O(1), whatever n is).
  */
 
 import { assessDesign, usesDesign } from './design/index.ts';
@@ -266,7 +268,13 @@ function projectMore(
     return null;
   }
   if (previous?.more && !previous.more.atLeast && previous.n < n && previous.n >= setup.min) {
-    const prevTotal = previous.n + previous.more.likely;
+    // Relative to the previous entry's raw projection (not its smoothed one), so the clamp depends on one
+    // step only: loading a study or assessing a file needs two assessments, not a replay of every entry.
+    const prevRaw =
+      typeof previous.details.moreRawLikely === 'number'
+        ? previous.details.moreRawLikely
+        : previous.more.likely;
+    const prevTotal = previous.n + prevRaw;
     const lo = Math.max(n, Math.floor(prevTotal / SMOOTH_FACTOR));
     const hi = Math.ceil(prevTotal * SMOOTH_FACTOR);
     const clamped = Math.min(hi, Math.max(lo, likelyTotal));
@@ -293,8 +301,8 @@ function projectMore(
 }
 
 /**
- * Assess a list of points (batch form used by the command line). Replays the entries through a
- * RunningSummary so the smoothed projection is the one the app would show after the last entry.
+ * Assess a list of points (batch form used by the command line). Feeds the entries through a
+ * RunningSummary and assesses at the last two, so the smoothed projection is the one the app shows.
  */
 export function assess(points: readonly Point[], setup: AnalysisSetup): Assessment {
   validateSetup(setup);
@@ -307,9 +315,9 @@ export function assess(points: readonly Point[], setup: AnalysisSetup): Assessme
   points.forEach((p, i) => {
     summary.add(p);
     if (!p.censored) values.push(p.value);
-    // only the entries from the minimum on influence the smoothed projection
-    if (i < last && setup.target !== undefined && summary.n >= setup.min && summary.censored === 0) {
-      previous = assessSummary(summary, setup, values, { previous });
+    // the smoothed projection looks one entry back (see projectMore)
+    if (i === last - 1 && setup.target !== undefined && summary.n >= setup.min && summary.censored === 0) {
+      previous = assessSummary(summary, setup, values);
       if (previous.verdict.status !== 'keep going') previous = null;
     }
   });

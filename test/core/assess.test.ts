@@ -133,6 +133,25 @@ describe('how many more', () => {
     expect(a.details.moreSmoothed).toBe(true);
     expect(a.details.moreRawLikely).toBeGreaterThan(a.more!.likely);
   });
+  it('smoothing looks one entry back: assess() equals a full entry-by-entry chain (derived invariant)', () => {
+    // A skewed sequence whose raw projection jumps, so the clamp acts on several consecutive entries.
+    const xs = [5, 5.2, 4.9, 5.1, 5, 5.05, 4.95, 5.1, 5, 4.9, 5, 9, 5.1, 1, 5, 12, 5, 5.1, 0.5, 5];
+    const setup = { ...base, target: { kind: 'margin' as const, value: 0.4 } };
+    const s = new RunningSummary();
+    const values: number[] = [];
+    let chained: Assessment | null = null;
+    let prev: Assessment | null = null;
+    let clamped = 0;
+    for (const x of xs) {
+      s.add(x);
+      values.push(x);
+      chained = assessSummary(s, setup, values, { previous: prev });
+      if (chained.details.moreSmoothed === true) clamped++;
+      prev = s.n >= setup.min && chained.verdict.status === 'keep going' ? chained : null;
+    }
+    expect(clamped).toBeGreaterThan(1);
+    expect(assess(pts(xs), setup).more).toEqual(chained!.more);
+  });
   it('counts with a negative-binomial k: projection from the count model', () => {
     const counts = [0, 3, 1, 7, 0, 0, 2, 9, 1, 0, 4, 0, 5];
     const a = assess(pts(counts), {

@@ -38,6 +38,8 @@ export class StudySession {
   private values: number[] = [];
   /** Counted points in entry order, for the design-aware estimates (web/design, issue 7; O(n) per entry). */
   private points: Point[] = [];
+  /** Some entry is a non-detect or names a primary unit, so the design-aware estimate applies. */
+  private designPoints = false;
   /** The assessment the core smooths "how many more" against (as `assess` chains it). */
   private previous: Assessment | null = null;
   private stride = 1;
@@ -92,19 +94,36 @@ export class StudySession {
   }
 
   /** One counted entry through the core, chaining the smoothing as the core's batch `assess` does. O(1). */
-  private step(summary: RunningSummary, r: ObservationRecord, values: number[]): Assessment {
+  /** Adds one counted record to the running state. O(1). */
+  private addPoint(summary: RunningSummary, r: ObservationRecord, values: number[]): void {
     const p = pointOf(r);
     summary.add(p);
     if (!p.censored) values.push(p.value);
     this.points.push(p);
+    if (p.cluster !== undefined || p.censored === true) this.designPoints = true;
+  }
+
+  /** The core's assessment of the entries so far (design-aware when the design applies). */
+  private assessNow(summary: RunningSummary, values: number[], previous: Assessment | null): Assessment {
     const setup = this.study.setup;
     const { assessDesign, assessSummary, usesDesign } = loadedCore();
-    const a = usesDesign(this.points, setup)
+    return this.designPoints || usesDesign([], setup)
       ? assessDesign(this.points, setup)
-      : assessSummary(summary, setup, values, { previous: this.previous });
+      : assessSummary(summary, setup, values, { previous });
+  }
+
+  /** What the next entry's smoothing may look back to (the core's `assess` applies the same condition). */
+  private remember(a: Assessment, summary: RunningSummary): void {
+    const setup = this.study.setup;
     if (setup.target !== undefined && summary.n >= setup.min && summary.censored === 0) {
       this.previous = a.verdict.status === 'keep going' ? a : null;
     }
+  }
+
+  private step(summary: RunningSummary, r: ObservationRecord, values: number[]): Assessment {
+    this.addPoint(summary, r, values);
+    const a = this.assessNow(summary, values, this.previous);
+    this.remember(a, summary);
     return a;
   }
 
@@ -128,11 +147,17 @@ export class StudySession {
     }
   }
 
-  /** Replays the counted entries through a fresh summary (on load, and after a void). O(n). */
+  /**
+   * Rebuilds the running state from the counted entries (on load, and after a void). Adding an entry is
+   * O(1); the core is asked for an assessment only at the chart's points (≤ SERIES_MAX) and at the last two
+   * entries (the smoothed "more" looks one entry back), so opening a study of 5,000 entries costs a few
+   * hundred assessments, not 5,000.
+   */
   private replay(): void {
     this.summary = new (loadedCore().RunningSummary)();
     this.values = [];
     this.points = [];
+    this.designPoints = false;
     this.previous = null;
     this.series = [];
     this.stride = 1;
@@ -140,15 +165,19 @@ export class StudySession {
       (r) => r.voids === undefined && r.value !== undefined && !this.voidOf.has(r.id),
     );
     while (counted.length / this.stride > SERIES_MAX) this.stride *= 2;
+    const last = counted.length - 1;
     let a: Assessment | null = null;
-    for (const r of counted) {
-      a = this.step(this.summary, r, this.values);
-      this.pushSeries(a);
-    }
-    this.assessment =
-      a ??
-      (loadedCore().usesDesign([], this.study.setup)
-        ? loadedCore().assessDesign([], this.study.setup)
-        : loadedCore().assessSummary(this.summary, this.study.setup, this.values));
+    counted.forEach((r, i) => {
+      this.addPoint(this.summary, r, this.values);
+      const n = this.points.length;
+      if (i >= last - 1) {
+        a = this.assessNow(this.summary, this.values, i === last ? this.previous : null);
+        this.remember(a, this.summary);
+        this.pushSeries(a);
+      } else if (n % this.stride === 0) {
+        this.pushSeries(this.assessNow(this.summary, this.values, null));
+      }
+    });
+    this.assessment = a ?? this.assessNow(this.summary, this.values, null);
   }
 }
