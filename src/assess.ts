@@ -39,6 +39,12 @@ export interface AssessOptions {
    * `keep going` (replay, benchmark: only the verdict matters). Default true.
    */
   projection?: boolean;
+  /**
+   * Compute "how many more" (default true). False keeps everything else exact, reported interval included:
+   * the app's running chart needs only the interval at its sampled points, and the projection (root
+   * finding for the assured figure) is the costly part of an assessment.
+   */
+  more?: boolean;
 }
 
 /** Default minimum number of observations before any verdict other than `keep going`. */
@@ -213,7 +219,12 @@ export function assessSummary(
   if (ruleLabel !== null) details.rule = ruleLabel;
 
   let more: More | null = null;
-  if (target !== undefined && verdict.status === 'keep going' && options.projection !== false) {
+  if (
+    target !== undefined &&
+    verdict.status === 'keep going' &&
+    options.projection !== false &&
+    options.more !== false
+  ) {
     more = projectMore(model, setup, level, sided, n, details, warnings, options.previous ?? null);
   }
 

@@ -152,6 +152,23 @@ describe('how many more', () => {
     expect(clamped).toBeGreaterThan(1);
     expect(assess(pts(xs), setup).more).toEqual(chained!.more);
   });
+  it('more: false skips only the projection; the interval, level and verdict are unchanged', () => {
+    for (const rule of ['standard', 'strict', 'naive'] as const) {
+      const setup = { ...base, rule, target: { kind: 'margin' as const, value: 0.2 } };
+      const s = RunningSummary.of(normal12);
+      const full = assessSummary(s, setup, normal12);
+      const lean = assessSummary(s, setup, normal12, { more: false });
+      expect(full.more).not.toBeNull();
+      expect(lean.more).toBeNull();
+      expect([lean.estimate, lean.lower, lean.upper, lean.level]).toEqual([
+        full.estimate,
+        full.lower,
+        full.upper,
+        full.level,
+      ]);
+      expect(lean.verdict).toEqual(full.verdict);
+    }
+  });
   it('counts with a negative-binomial k: projection from the count model', () => {
     const counts = [0, 3, 1, 7, 0, 0, 2, 9, 1, 0, 4, 0, 5];
     const a = assess(pts(counts), {

@@ -104,12 +104,17 @@ export class StudySession {
   }
 
   /** The core's assessment of the entries so far (design-aware when the design applies). */
-  private assessNow(summary: RunningSummary, values: number[], previous: Assessment | null): Assessment {
+  private assessNow(
+    summary: RunningSummary,
+    values: number[],
+    previous: Assessment | null,
+    more = true,
+  ): Assessment {
     const setup = this.study.setup;
     const { assessDesign, assessSummary, usesDesign } = loadedCore();
     return this.designPoints || usesDesign([], setup)
       ? assessDesign(this.points, setup)
-      : assessSummary(summary, setup, values, { previous });
+      : assessSummary(summary, setup, values, { previous, more });
   }
 
   /** What the next entry's smoothing may look back to (the core's `assess` applies the same condition). */
@@ -175,7 +180,8 @@ export class StudySession {
         this.remember(a, this.summary);
         this.pushSeries(a);
       } else if (n % this.stride === 0) {
-        this.pushSeries(this.assessNow(this.summary, this.values, null));
+        // a chart point needs the interval only, not the costly projection
+        this.pushSeries(this.assessNow(this.summary, this.values, null, false));
       }
     });
     this.assessment = a ?? this.assessNow(this.summary, this.values, null);
