@@ -16,11 +16,8 @@ export function Banners() {
   const accept = useStore(updateWaiting);
   const typing = useStore(halfTyped);
   const ready = useStore(offlineReady);
-  useEffect(() => {
-    if (!ready) return;
-    const t = setTimeout(() => offlineReady.set(false), 8000);
-    return () => clearTimeout(t);
-  }, [ready]);
+  // The "ready offline" note stays until the user taps OK: vanishing by itself would move every control up
+  // under a gloved thumb mid-tap.
   return (
     <div class="banners">
       {blocked && (
