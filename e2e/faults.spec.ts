@@ -72,7 +72,7 @@ test.describe('browser killed', () => {
 
     // 1. the tap, then the kill at once: the entry is in flight
     await typeAndSave(page, '15,5');
-    killBrowser(dir);
+    await killBrowser(dir);
     await ctx.close().catch(() => undefined);
     ctx = await launchProfile(dir);
     page = await firstPage(ctx);
@@ -89,7 +89,7 @@ test.describe('browser killed', () => {
     const next = log.length + 1;
     await typeAndSave(page, '9,75');
     await expectSaved(page, next);
-    killBrowser(dir);
+    await killBrowser(dir);
     await ctx.close().catch(() => undefined);
     ctx = await launchProfile(dir);
     page = await firstPage(ctx);
