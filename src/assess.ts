@@ -80,7 +80,8 @@ export function checkTarget(target: Target, interval: Interval, sided: Sided): T
   }
 }
 
-function modelFor(summary: RunningSummary, setup: AnalysisSetup): KindModel {
+/** The data kind's model (interval, guards, projection) over a running summary. */
+export function modelFor(summary: RunningSummary, setup: AnalysisSetup): KindModel {
   switch (setup.kind) {
     case 'measurement':
       return measurementModel(summary, setup);
@@ -111,7 +112,7 @@ function validateSetup(setup: AnalysisSetup): void {
 }
 
 /** The sidedness actually used: a limit target with `two` checks the bound on the estimate's side. */
-function effectiveSided(setup: AnalysisSetup, estimate: number | null): Sided {
+export function effectiveSided(setup: AnalysisSetup, estimate: number | null): Sided {
   if (setup.target?.kind !== 'limit' || setup.sided !== 'two') return setup.sided;
   return estimate !== null && estimate > setup.target.value ? 'lower' : 'upper';
 }

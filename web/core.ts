@@ -1,5 +1,6 @@
 /**
- * The one seam between the app and the pure core: web/ imports statistics and shared types from here,
- * and this file imports only src/index.ts. Nothing in web/ computes statistics itself.
+ * The one seam between the app and the pure core: this file imports only src/index.ts. web/ takes types
+ * from here, and values only through ./core-loader.ts (this module is its own chunk, loaded after the first
+ * paint) or, for the few helpers without statistics, ./core-light.ts. Nothing in web/ computes statistics.
  */
 export * from '../src/index.ts';

@@ -18,12 +18,8 @@
  *
  * @example replaySequence([9.8, 10.1, …], setup) // { stoppedAt: 23, estimate: 10.02, lower: 9.6, upper: 10.4, verdict: 'enough' }
  */
-import { assessSummary, checkTarget } from '../assess.ts';
+import { assessSummary, checkTarget, effectiveSided, modelFor } from '../assess.ts';
 import type { AnalysisSetup, Sided, Target, VerdictStatus } from '../model/types.ts';
-import { countModel } from '../stats/kinds/count.ts';
-import type { KindModel } from '../stats/kinds/kind-model.ts';
-import { measurementModel } from '../stats/kinds/measurement.ts';
-import { passFailModel } from '../stats/kinds/pass-fail.ts';
 import { RunningSummary } from '../stats/running-summary.ts';
 import { decide } from './index.ts';
 import type { RuleContext } from './rule-context.ts';
@@ -36,23 +32,6 @@ export interface ReplayResult {
   verdict: VerdictStatus;
   /** Confidence level of the reported interval (the rule's reported level). */
   level: number;
-}
-
-function modelFor(summary: RunningSummary, setup: AnalysisSetup): KindModel {
-  switch (setup.kind) {
-    case 'measurement':
-      return measurementModel(summary, setup);
-    case 'count':
-      return countModel(summary, setup);
-    case 'pass-fail':
-      return passFailModel(summary, setup);
-  }
-}
-
-/** As assess.ts: a limit target with a two-sided setup checks the bound on the estimate's side. */
-function effectiveSided(setup: AnalysisSetup, estimate: number | null): Sided {
-  if (setup.target?.kind !== 'limit' || setup.sided !== 'two') return setup.sided;
-  return estimate !== null && estimate > setup.target.value ? 'lower' : 'upper';
 }
 
 /**

@@ -40,7 +40,7 @@ export class StudySession {
   private points: Point[] = [];
   /** Some entry is a non-detect or names a primary unit, so the design-aware estimate applies. */
   private designPoints = false;
-  /** The assessment the core smooths "how many more" against (as `assess` chains it). */
+  /** The previous entry's assessment: the core smooths "how many more" one entry back, as `assess` does. */
   private previous: Assessment | null = null;
   private stride = 1;
   series: SeriesPoint[] = [];
