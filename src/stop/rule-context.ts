@@ -7,17 +7,10 @@
  * The rule chooses the level it checks and reports (standard: a calibrated inflated level; strict: a
  * level valid under continuous monitoring; sprt: Wald's boundaries), and returns the verdict.
  */
+import type { Interval, TargetCheck } from '../model/interval.ts';
 import type { DataKind, Sided, VerdictStatus } from '../model/types.ts';
 
-export interface Interval {
-  estimate: number;
-  lower: number;
-  upper: number;
-  /** Standard error of the estimate when the method has one (needed by the `precision` target). */
-  se?: number;
-}
-
-export type TargetCheck = 'met' | 'not-met' | 'below' | 'above' | 'undecided';
+export type { Interval, TargetCheck } from '../model/interval.ts';
 
 export interface RuleContext {
   kind: DataKind;

@@ -5,7 +5,7 @@
  * its own file with its source.
  */
 import type { Sided, Target } from '../../model/types.ts';
-import type { Interval } from '../../stop/index.ts';
+import type { Interval } from '../../model/interval.ts';
 
 export type GuardReason = 'one-distinct-value' | 'zero-spread' | 'all-zero' | 'not-supportable';
 
