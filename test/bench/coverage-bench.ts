@@ -19,17 +19,17 @@
  */
 import { writeFileSync } from 'node:fs';
 import type { AnalysisSetup, RuleName } from '../../src/model/types.ts';
-import { bernoulliVariate } from '../../src/sim/bernoulli-variate.ts';
-import { lognormalVariate } from '../../src/sim/lognormal-variate.ts';
-import { negativeBinomialVariate } from '../../src/sim/negative-binomial-variate.ts';
-import { normalVariate } from '../../src/sim/normal-variate.ts';
-import { poissonVariate } from '../../src/sim/poisson-variate.ts';
-import { createRng, type Rng } from '../../src/sim/xoshiro128.ts';
 import { normalQuantile } from '../../src/stats/distributions.ts';
 import { replaySequence } from '../../src/stop/replay-sequence.ts';
 import { sprtMaxN, sprtModelOf } from '../../src/stop/sprt.ts';
 import { sprtOperatingCharacteristic } from '../../src/stop/sprt-operating-characteristic.ts';
 import { STANDARD_ALPHA_RATIO, type StandardGroup } from '../../src/stop/standard-level.ts';
+import { bernoulliVariate } from '../sim/bernoulli-variate.ts';
+import { lognormalVariate } from '../sim/lognormal-variate.ts';
+import { negativeBinomialVariate } from '../sim/negative-binomial-variate.ts';
+import { normalVariate } from '../sim/normal-variate.ts';
+import { poissonVariate } from '../sim/poisson-variate.ts';
+import { createRng, type Rng } from '../sim/xoshiro128.ts';
 
 const args = process.argv.slice(2);
 const flag = (name: string): string | undefined => {

@@ -47,7 +47,7 @@ interface Fixture {
 
 const order = writtenOrder();
 const fixtures: Fixture[] = [];
-const importer = (from: string, spec: string) => `import { x } from '${spec}';\nexport const y = x;\n`;
+const importer = (spec: string) => `import { x } from '${spec}';\nexport const y = x;\n`;
 
 // Every ordered pair of folders: a file in src/<from> importing src/<to>. Allowed only when <to> is to
 // the left of <from> in the written order (or is <from> itself).
@@ -56,7 +56,7 @@ for (const [i, from] of order.entries()) {
     if (i === j) continue;
     fixtures.push({
       path: `src/${from}/imports-${to}.ts`,
-      source: importer(from, `../${to}/x.ts`),
+      source: importer(`../${to}/x.ts`),
       bad: j > i,
     });
   }
@@ -65,18 +65,18 @@ for (const [i, from] of order.entries()) {
   if (from !== 'assess')
     fixtures.push({
       path: `src/${from}/imports-assess-file.ts`,
-      source: importer(from, '../assess.ts'),
+      source: importer('../assess.ts'),
       bad: a > i,
     });
 }
 // Deeper files count too: a subfolder of src/model importing src/stats two levels up.
 fixtures.push({
   path: 'src/model/deep/imports-stats.ts',
-  source: importer('', '../../stats/x.ts'),
+  source: importer('../../stats/x.ts'),
   bad: true,
 });
 // jstat: the facade (and its declaration file) may import it; nothing else in src, web or test may.
-fixtures.push({ path: 'src/stats/distributions.ts', source: importer('', 'jstat'), bad: false });
+fixtures.push({ path: 'src/stats/distributions.ts', source: importer('jstat'), bad: false });
 for (const p of [
   'src/stats/stray.ts',
   'src/plan/stray.ts',
@@ -84,15 +84,15 @@ for (const p of [
   'web/stray.ts',
   'test/stray.ts',
 ])
-  fixtures.push({ path: p, source: importer('', 'jstat'), bad: true });
+  fixtures.push({ path: p, source: importer('jstat'), bad: true });
 // The bans that predate the order: src never imports web, UI or storage libraries; the barrel
 // src/index.ts never imports the Node command line.
-fixtures.push({ path: 'src/stats/imports-web.ts', source: importer('', '../../web/app/x.tsx'), bad: true });
-fixtures.push({ path: 'src/design/imports-preact.ts', source: importer('', 'preact/hooks'), bad: true });
-fixtures.push({ path: 'src/plan/imports-idb.ts', source: importer('', 'idb'), bad: true });
-fixtures.push({ path: 'src/stop/imports-test.ts', source: importer('', '../../test/sim/x.ts'), bad: true });
-fixtures.push({ path: 'src/index.ts', source: importer('', './cli/main.ts'), bad: true });
-fixtures.push({ path: 'web/imports-src.ts', source: importer('', '../src/index.ts'), bad: false });
+fixtures.push({ path: 'src/stats/imports-web.ts', source: importer('../../web/app/x.tsx'), bad: true });
+fixtures.push({ path: 'src/design/imports-preact.ts', source: importer('preact/hooks'), bad: true });
+fixtures.push({ path: 'src/plan/imports-idb.ts', source: importer('idb'), bad: true });
+fixtures.push({ path: 'src/stop/imports-test.ts', source: importer('../../test/sim/x.ts'), bad: true });
+fixtures.push({ path: 'src/index.ts', source: importer('./cli/main.ts'), bad: true });
+fixtures.push({ path: 'web/imports-src.ts', source: importer('../src/index.ts'), bad: false });
 
 let scratch = '';
 

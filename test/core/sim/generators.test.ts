@@ -9,13 +9,13 @@
  * for any seed while a wrong parameterisation (e.g. variance m + m²k, or σ instead of σ²) fails surely.
  */
 import { describe, expect, it } from 'vitest';
-import { bernoulliVariate } from '../../../src/sim/bernoulli-variate.ts';
-import { gammaVariate } from '../../../src/sim/gamma-variate.ts';
-import { lognormalVariate } from '../../../src/sim/lognormal-variate.ts';
-import { negativeBinomialVariate } from '../../../src/sim/negative-binomial-variate.ts';
-import { normalVariate } from '../../../src/sim/normal-variate.ts';
-import { poissonVariate } from '../../../src/sim/poisson-variate.ts';
-import { createRng, type Rng } from '../../../src/sim/xoshiro128.ts';
+import { bernoulliVariate } from '../../sim/bernoulli-variate.ts';
+import { gammaVariate } from '../../sim/gamma-variate.ts';
+import { lognormalVariate } from '../../sim/lognormal-variate.ts';
+import { negativeBinomialVariate } from '../../sim/negative-binomial-variate.ts';
+import { normalVariate } from '../../sim/normal-variate.ts';
+import { poissonVariate } from '../../sim/poisson-variate.ts';
+import { createRng, type Rng } from '../../sim/xoshiro128.ts';
 
 function moments(draw: (rng: Rng) => number, seed: number, r: number) {
   const rng = createRng(seed);

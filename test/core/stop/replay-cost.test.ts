@@ -10,12 +10,12 @@
 import { describe, expect, it } from 'vitest';
 import { assessSummary } from '../../../src/assess.ts';
 import type { AnalysisSetup } from '../../../src/model/types.ts';
-import { lognormalVariate } from '../../../src/sim/lognormal-variate.ts';
-import { negativeBinomialVariate } from '../../../src/sim/negative-binomial-variate.ts';
-import { createRng } from '../../../src/sim/xoshiro128.ts';
 import { quantileCacheMisses } from '../../../src/stats/quantile-cache.ts';
 import { RunningSummary } from '../../../src/stats/running-summary.ts';
 import { replaySequence } from '../../../src/stop/replay-sequence.ts';
+import { lognormalVariate } from '../../sim/lognormal-variate.ts';
+import { negativeBinomialVariate } from '../../sim/negative-binomial-variate.ts';
+import { createRng } from '../../sim/xoshiro128.ts';
 
 const base = { level: 0.95, sided: 'two', rule: 'standard', min: 10 } as const;
 const cases: { name: string; setup: AnalysisSetup; draw: (g: ReturnType<typeof createRng>) => number }[] = [

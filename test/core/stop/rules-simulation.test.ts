@@ -9,17 +9,17 @@
 import { describe, expect, it } from 'vitest';
 import { assessSummary } from '../../../src/assess.ts';
 import type { AnalysisSetup, RuleName } from '../../../src/model/types.ts';
-import { bernoulliVariate } from '../../../src/sim/bernoulli-variate.ts';
-import { lognormalVariate } from '../../../src/sim/lognormal-variate.ts';
-import { negativeBinomialVariate } from '../../../src/sim/negative-binomial-variate.ts';
-import { normalVariate } from '../../../src/sim/normal-variate.ts';
-import { createRng, type Rng } from '../../../src/sim/xoshiro128.ts';
 import { RunningSummary } from '../../../src/stats/running-summary.ts';
 import { greenStopLine } from '../../../src/stop/green-stop-line.ts';
 import { kunoStopLine } from '../../../src/stop/kuno-stop-line.ts';
 import { replaySequence } from '../../../src/stop/replay-sequence.ts';
 import { ruleWarnings } from '../../../src/stop/rule-warnings.ts';
 import { standardLevel } from '../../../src/stop/standard-level.ts';
+import { bernoulliVariate } from '../../sim/bernoulli-variate.ts';
+import { lognormalVariate } from '../../sim/lognormal-variate.ts';
+import { negativeBinomialVariate } from '../../sim/negative-binomial-variate.ts';
+import { normalVariate } from '../../sim/normal-variate.ts';
+import { createRng, type Rng } from '../../sim/xoshiro128.ts';
 
 const RULES: RuleName[] = ['naive', 'standard', 'strict', 'sprt'];
 

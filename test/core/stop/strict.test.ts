@@ -3,11 +3,11 @@
  * confidence sequence. Sources beside each check.
  */
 import { describe, expect, it } from 'vitest';
-import { createRng } from '../../../src/sim/xoshiro128.ts';
 import { wilsonInterval } from '../../../src/stats/wilson-interval.ts';
 import { betaBinomialConfidenceSequence } from '../../../src/stop/beta-binomial-confidence-sequence.ts';
 import { steinTwoStage } from '../../../src/stop/stein-two-stage.ts';
 import { strictCost } from '../../../src/stop/strict-cost.ts';
+import { createRng } from '../../sim/xoshiro128.ts';
 
 describe("Stein's two-stage size N = max(m, ⌊(t₍1−α/2, m−1₎ s_m/d)²⌋ + 1) (Stein 1945; METHODS §4.4)", () => {
   it('worked example m = 10, s = 2, d = 1, 95 %: t = 2.262157, (t·s/d)² = 20.469 → N = 21 [derived]', () => {

@@ -1,8 +1,8 @@
 /**
  * Lognormal random numbers specified by their arithmetic mean and coefficient of variation.
  *
- * Question answered: "draw one concentration-like value with this mean and CV" (METHODS §7 grid:
- * mean 1, CV 0.5, 1, 2).
+ * Question answered: "draw one concentration-like value with this mean and CV" (the coverage benchmark grid,
+ * test/bench/coverage.md: mean 1, CV 0.5, 1, 2).
  * Source: Aitchison J, Brown JAC (1957) The Lognormal Distribution, Cambridge UP, ch. 2: if ln X ~ N(μ, σ²)
  * then E X = exp(μ + σ²/2) and CV² = exp(σ²) − 1, so σ² = ln(1 + CV²) and μ = ln(mean) − σ²/2.
  *

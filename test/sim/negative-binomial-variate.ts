@@ -1,7 +1,8 @@
 /**
  * Negative binomial random counts with mean m and dispersion k (variance m + m²/k).
  *
- * Question answered: "draw one clumped count per plot" (METHODS §7 grid: mean 2, k = 0.5 and 2).
+ * Question answered: "draw one clumped count per plot" (the coverage benchmark grid,
+ * test/bench/coverage.md: mean 2, k = 0.5 and 2).
  * Source: the gamma–Poisson mixture (Greenwood M, Yule GU (1920) J. R. Stat. Soc. 83:255–279; Bliss CI,
  * Fisher RA (1953) Biometrics 9:176–200 for the (m, k) parameterisation): λ ~ Gamma(shape k, scale m/k),
  * X | λ ~ Poisson(λ).

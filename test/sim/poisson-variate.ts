@@ -13,7 +13,7 @@
  * @example
  * poissonVariate(createRng(1), 2); // 0, 1, 2, … with mean 2
  */
-import { logGamma } from '../stats/distributions.ts';
+import { logGamma } from '../../src/stats/distributions.ts';
 import type { Rng } from './xoshiro128.ts';
 
 export function poissonVariate(rng: Rng, lambda: number): number {
