@@ -1,4 +1,4 @@
-/** The command registry. Each command module exports `{ summary, run(args) → stdout text }`. */
+/** The command registry. Each command module exports `{ summary, run(args) → stdout text (or its promise) }`. */
 import * as assess from './assess.ts';
 import * as bundle from './bundle.ts';
 import * as exportCommand from './export.ts';
@@ -10,7 +10,7 @@ import * as replay from './replay.ts';
 
 export interface Command {
   summary: string;
-  run(args: ParsedArgs): string;
+  run(args: ParsedArgs): string | Promise<string>;
   /** Full text for `help COMMAND` (commands without it are covered by help.ts). */
   help?: string;
 }

@@ -5,21 +5,21 @@
 import { commands } from './commands.ts';
 import { parseArgs, UsageError } from './io.ts';
 
-function main(argv: readonly string[]): number {
+async function main(argv: readonly string[]): Promise<number> {
   const [name, ...rest] = argv;
   if (name === undefined || name === 'help' || name === '--help' || name === '-h') {
-    process.stdout.write(commands.help!.run(parseArgs(rest)));
+    process.stdout.write(await commands.help!.run(parseArgs(rest)));
     return 0;
   }
   const command = commands[name];
   if (!command) throw new UsageError(`unknown command "${name}"; try \`sure-enough help\``);
-  const out = command.run(parseArgs(rest));
+  const out = await command.run(parseArgs(rest));
   process.stdout.write(out);
   return 0;
 }
 
 try {
-  process.exitCode = main(process.argv.slice(2));
+  process.exitCode = await main(process.argv.slice(2));
 } catch (err) {
   if (err instanceof UsageError || err instanceof RangeError) {
     process.stderr.write(`sure-enough: ${err.message}\n`);
