@@ -8,6 +8,7 @@
  * once the structure is right.
  */
 import type { ObservationRecord, StudyRecord } from '../model/records.ts';
+import { setupPath, setupProblems } from '../model/setup.ts';
 import { BUNDLE_FORMAT, BUNDLE_VERSION, type Bundle, bundleChecksum, KNOWN_KEYS } from './bundle.ts';
 
 export type BundleResult = { ok: true; bundle: Bundle } | { ok: false; problems: string[] };
@@ -18,12 +19,6 @@ const MAX_PROBLEMS = 50;
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/;
 const ISO_TIME = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2})(\.\d{1,9})?(Z|([+-])(\d{2}):(\d{2}))$/;
 const HEX64 = /^[0-9a-f]{64}$/;
-
-const METHODS: Record<string, readonly string[]> = {
-  measurement: ['t', 'cox', 'land', 'chebyshev'],
-  count: ['t', 'poisson-exact', 'quasi-poisson'],
-  'pass-fail': ['wilson', 'wilson-cc', 'jeffreys', 'clopper-pearson', 'agresti-coull'],
-};
 
 /**
  * True when `text` is an RFC 3339 date-time (the ISO 8601 profile with seconds and a UTC offset),
@@ -95,115 +90,13 @@ class Problems {
 
 const positiveInt = (n: number) => Number.isInteger(n) && n >= 1;
 
+/** The setup's own rules live in src/model/setup.ts (shared with the form, the CLI and the core). */
 function checkSetup(p: Problems, setup: unknown): void {
-  const w = 'study.setup';
   if (setup === undefined) {
-    p.add(w, 'missing');
+    p.add('study.setup', 'missing');
     return;
   }
-  if (!isObj(setup)) {
-    p.add(w, `must be an object, got ${show(setup)}`);
-    return;
-  }
-  p.unknownKeys(w, setup, KNOWN_KEYS.setup);
-  const kind = setup.kind;
-  if (kind === undefined) p.add(`${w}.kind`, 'missing');
-  else if (kind !== 'measurement' && kind !== 'count' && kind !== 'pass-fail')
-    p.add(`${w}.kind`, `must be measurement, count or pass-fail, got ${show(kind)}`);
-  p.number(`${w}.level`, setup.level, true, (n) => n > 0 && n < 1, 'between 0 and 1');
-  if (setup.sided === undefined) p.add(`${w}.sided`, 'missing');
-  else if (!['two', 'upper', 'lower'].includes(setup.sided as string))
-    p.add(`${w}.sided`, `must be two, upper or lower, got ${show(setup.sided)}`);
-  if (setup.method !== undefined) {
-    const allowed = METHODS[kind as string];
-    if (typeof setup.method !== 'string' || (allowed && !allowed.includes(setup.method)))
-      p.add(
-        `${w}.method`,
-        `not a method for ${String(kind)} data${allowed ? ` (${allowed.join(', ')})` : ''}, got ${show(setup.method)}`,
-      );
-  }
-  if (setup.rule === undefined) p.add(`${w}.rule`, 'missing');
-  else if (!['standard', 'strict', 'sprt', 'naive'].includes(setup.rule as string))
-    p.add(`${w}.rule`, `must be standard, strict, sprt or naive, got ${show(setup.rule)}`);
-  p.number(`${w}.min`, setup.min, true, positiveInt, 'a whole number ≥ 1');
-  p.number(`${w}.population`, setup.population, false, positiveInt, 'a whole number ≥ 1');
-  p.number(`${w}.plotArea`, setup.plotArea, false, (n) => n > 0, 'greater than 0');
-  p.number(`${w}.max`, setup.max, false, positiveInt, 'a whole number ≥ 1');
-  p.number(`${w}.reportingLimit`, setup.reportingLimit, false, (n) => n > 0, 'greater than 0');
-  for (const k of ['unit', 'plotAreaUnit', 'outcomeName', 'taxon', 'samplingProtocol'] as const)
-    p.string(`${w}.${k}`, setup[k], false);
-  if (setup.design !== undefined && setup.design !== 'composite')
-    p.add(`${w}.design`, `must be "composite" when present, got ${show(setup.design)}`);
-  if (
-    setup.nonDetects !== undefined &&
-    setup.nonDetects !== 'kaplan-meier' &&
-    setup.nonDetects !== 'half-limit'
-  )
-    p.add(`${w}.nonDetects`, `must be kaplan-meier or half-limit, got ${show(setup.nonDetects)}`);
-  if (setup.strata !== undefined) {
-    if (!Array.isArray(setup.strata)) p.add(`${w}.strata`, `must be an array, got ${show(setup.strata)}`);
-    else {
-      const names = new Set<string>();
-      setup.strata.forEach((st, i) => {
-        const ws = `${w}.strata[${i}]`;
-        if (!isObj(st)) {
-          p.add(ws, `must be an object, got ${show(st)}`);
-          return;
-        }
-        p.unknownKeys(ws, st, ['name', 'weight', 'cost', 'population']);
-        p.string(`${ws}.name`, st.name, true, true);
-        if (typeof st.name === 'string') {
-          if (names.has(st.name)) p.add(`${ws}.name`, `"${st.name}" is listed twice`);
-          names.add(st.name);
-        }
-        p.number(`${ws}.weight`, st.weight, true, (n) => n > 0, 'greater than 0');
-        p.number(`${ws}.cost`, st.cost, false, (n) => n > 0, 'greater than 0');
-        p.number(`${ws}.population`, st.population, false, positiveInt, 'a whole number ≥ 1');
-      });
-    }
-  }
-  const t = setup.target;
-  if (t !== undefined) {
-    if (!isObj(t)) p.add(`${w}.target`, `must be an object, got ${show(t)}`);
-    else {
-      const known = t.kind === 'limit' ? ['kind', 'value', 'source', 'date'] : ['kind', 'value'];
-      p.unknownKeys(`${w}.target`, t, known);
-      if (!['margin', 'relative', 'precision', 'limit'].includes(t.kind as string))
-        p.add(`${w}.target.kind`, `must be margin, relative, precision or limit, got ${show(t.kind)}`);
-      p.number(
-        `${w}.target.value`,
-        t.value,
-        true,
-        t.kind === 'limit' ? undefined : (n) => n > 0,
-        'greater than 0',
-      );
-      p.string(`${w}.target.source`, t.source, false);
-      p.string(`${w}.target.date`, t.date, false);
-    }
-  }
-  if (setup.planning !== undefined) {
-    if (!isObj(setup.planning)) p.add(`${w}.planning`, `must be an object, got ${show(setup.planning)}`);
-    else {
-      const keys = ['negBinomialK', 'taylorA', 'taylorB', 'iwaoAlpha', 'iwaoBeta'];
-      p.unknownKeys(`${w}.planning`, setup.planning, keys);
-      for (const k of keys) p.number(`${w}.planning.${k}`, setup.planning[k], false);
-    }
-  }
-  if (setup.sprt !== undefined) {
-    if (!isObj(setup.sprt)) p.add(`${w}.sprt`, `must be an object, got ${show(setup.sprt)}`);
-    else {
-      const s = setup.sprt;
-      p.unknownKeys(`${w}.sprt`, s, ['alpha', 'beta', 'lowerBound', 'upperBound', 'maxN']);
-      const rate = (n: number) => n > 0 && n < 0.5;
-      p.number(`${w}.sprt.alpha`, s.alpha, true, rate, 'between 0 and 0.5');
-      p.number(`${w}.sprt.beta`, s.beta, true, rate, 'between 0 and 0.5');
-      p.number(`${w}.sprt.lowerBound`, s.lowerBound, true);
-      p.number(`${w}.sprt.upperBound`, s.upperBound, true);
-      p.number(`${w}.sprt.maxN`, s.maxN, false, positiveInt, 'a whole number ≥ 1');
-      if (isNum(s.lowerBound) && isNum(s.upperBound) && !(s.lowerBound < s.upperBound))
-        p.add(`${w}.sprt`, 'lowerBound must be below upperBound');
-    }
-  }
+  for (const q of setupProblems(setup)) p.add(setupPath('study.setup', q.path), q.message);
 }
 
 function checkStudy(p: Problems, study: unknown): void {
@@ -304,8 +197,12 @@ function checkLinks(p: Problems, events: Obj[]): void {
   });
 }
 
-/** Validates untrusted bundle text. Returns the typed bundle, or every problem found (never a partial bundle). */
-export function parseBundle(text: string): BundleResult {
+/**
+ * Validates untrusted bundle text. Resolves to the typed bundle, or every problem found (never a partial
+ * bundle). Asynchronous because of the checksum (the platform's SHA-256): validate before opening an
+ * IndexedDB transaction.
+ */
+export async function parseBundle(text: string): Promise<BundleResult> {
   let data: unknown;
   try {
     data = JSON.parse(text);
@@ -316,7 +213,7 @@ export function parseBundle(text: string): BundleResult {
 }
 
 /** Validates an already-parsed value (see parseBundle). */
-export function validateBundle(data: unknown): BundleResult {
+export async function validateBundle(data: unknown): Promise<BundleResult> {
   const p = new Problems();
   if (!isObj(data)) return { ok: false, problems: [`file: must be a JSON object, got ${show(data)}`] };
   if (data.format !== BUNDLE_FORMAT)
@@ -354,7 +251,7 @@ export function validateBundle(data: unknown): BundleResult {
       p.add('checksum.value', `must be 64 lower-case hexadecimal digits, got ${show(c.value)}`);
   }
   if (p.list.length === 0) {
-    const computed = bundleChecksum(data.study as StudyRecord, data.events as ObservationRecord[]);
+    const computed = await bundleChecksum(data.study as StudyRecord, data.events as ObservationRecord[]);
     if (computed !== (c as Obj).value)
       p.add(
         'checksum.value',
