@@ -1,6 +1,6 @@
 /**
  * `sure-enough assess [FILE|-]`: reads values (one per line, or a CSV with a `value` column), assesses them
- * with the same core the app uses (src/assess.ts) and prints one JSON object (shared CLI.md, "Output").
+ * with the same core the app uses (src/assess.ts) and prints one JSON object (src/cli/README.md, "Output").
  */
 import { assess } from '../assess.ts';
 import { parseValues } from '../validate/parse-values.ts';

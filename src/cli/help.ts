@@ -1,5 +1,5 @@
 /**
- * `sure-enough help [COMMAND]`: the full flag documentation (shared CLI.md plus this build's own flags).
+ * `sure-enough help [COMMAND]`: the full flag documentation (src/cli/README.md plus this build's own flags).
  */
 import { METHODS_BY_KIND } from './study-flags.ts';
 

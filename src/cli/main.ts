@@ -1,5 +1,5 @@
 /**
- * `sure-enough <command>`: the analysts' edge of the pure core (CLI contract: shared CLI.md).
+ * `sure-enough <command>`: the analysts' edge of the pure core (the contract: src/cli/README.md).
  * Each command lives in its own module and returns its stdout text; errors are UsageError → exit 2.
  */
 import { commands } from './commands.ts';

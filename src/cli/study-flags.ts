@@ -1,6 +1,6 @@
 /**
- * The study flags shared by every command that takes values (shared CLI.md, "Study flags"), parsed into an
- * AnalysisSetup. Every mistake is a UsageError naming the flag (exit 2, nothing on stdout).
+ * The study flags shared by every command that takes values (src/cli/README.md, "Study flags"), parsed
+ * into an AnalysisSetup. Every mistake is a UsageError naming the flag (exit 2, nothing on stdout).
  * Documented in full by help.ts.
  */
 
