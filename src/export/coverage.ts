@@ -2,8 +2,8 @@
  * The stopping rules' measured coverage, for the report's method statement.
  *
  * Source: this project's coverage benchmark, test/bench/coverage.md (written by
- * `npm run bench:coverage -- --out test/bench/coverage.md`; its grid and settings are stated there). The figures
- * below are transcribed from that file by hand; COVERAGE_SOURCE names its date and settings, and
+ * `npm run bench:coverage -- --out test/bench/coverage.md`; its grid and settings are stated there). The
+ * figures below are transcribed from that file by hand; COVERAGE_SOURCE names its date and settings, and
  * test/core/export/coverage.test.ts re-reads the file and fails when a figure here disagrees with it.
  * A rule or data kind without a figure gives null, and the report then says "not yet measured".
  *
