@@ -20,7 +20,8 @@
  * sdSample/√n (data units); `too-few` when fewer than two detects.
  * Validity: KM needs no distribution but cannot see below the smallest reporting limit (the mean is biased
  * high when the lowest results are non-detects); above 50 % non-detects a mean is not supportable
- * (METHODS §2.4 item 8); non-detects with limits above every detect carry no information.
+ * (this project's cut-off, following the cautions of Helsel 2012 and the Unified Guidance ch. 15);
+ * non-detects with limits above every detect carry no information.
  * O(n log n) per call (sorting).
  * @example kaplanMeierMean([{ value: 1 }, { value: 2 }, { value: 3 }, { value: 4 }, { value: 7 }])
  *   // { status: 'ok', mean: 3.4, sd: 2.059…, sdSample: 2.302…, … }

@@ -4,7 +4,7 @@
  * population correction n = n₀/(1 + n₀/N) when a population size N is given.
  *
  * Source: Cochran WG (1977) Sampling Techniques, 3rd ed., §4.4 (n₀ = (tσ/d)², iterated because t depends on
- * n) and §2.12 / eq. 4.1 (n = n₀/(1 + n₀/N)); the continuous fixed point of the shared METHODS notes §3.1.
+ * n) and §2.12 / eq. 4.1 (n = n₀/(1 + n₀/N)), solved as a continuous fixed point (src/plan/README.md).
  * Preconditions: sigma ≥ 0, d > 0, 0 < p < 1 (p = 1 − α/2 two-sided, 1 − α one-sided); population ≥ 2.
  * Returns: n as a real number ≥ 2 (round up for a count of observations); ≤ population when given.
  * Validity: the t quantile at non-integer df is interpolated (quadratic in 1/df) between integer df, which

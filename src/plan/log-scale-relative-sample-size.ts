@@ -2,7 +2,7 @@
  * Sample size for a relative half-width on the log scale — how many positive, skewed observations give a
  * modified Cox upper limit within a factor (1 + r) of the estimated arithmetic mean.
  *
- * Source: shared METHODS notes §3.5, from the Cox standard error (Land 1972; Zhou & Gao 1997, Stat Med
+ * Source: the Cox standard error (Land 1972; Zhou & Gao 1997, Stat Med
  * 16:783–790) with Olsson's (2005) t quantile: smallest n with exp(t₍p, n−1₎·√(s_y²/n + s_y⁴/(2(n−1)))) − 1 ≤ r.
  * Preconditions: s_y ≥ 0 (SD of ln x), r > 0, 0 < p < 1.
  * Returns: n as a real number ≥ 2 (the continuous root; round up).

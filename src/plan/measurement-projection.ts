@@ -2,7 +2,7 @@
  * "How many more" for measurements — the likely total n for an absolute half-width d, with its 10th–90th
  * percentile range and the 80 %-assurance figure.
  *
- * Source: shared METHODS notes §3.1, §3.6, §3.7: point n = fixed point of n = (t₍n−1₎·σ̂/d)² with σ̂ = s
+ * Source (src/plan/README.md): point n = fixed point of n = (t₍n−1₎·σ̂/d)² with σ̂ = s
  * (Cochran 1977 §4.4); range from the chi-square confidence distribution of σ (σ_q = s·√((n−1)/χ²₍1−q, n−1₎),
  * q = 0.1, 0.9); assured n from Kupper & Hafner (1989, Am Stat 43:101–105) with γ = 0.8.
  * Preconditions: n ≥ 2, s > 0, d > 0, 0 < p < 1; `multiplier` (optional) replaces the t quantile by a fixed

@@ -4,7 +4,9 @@
  *
  * Source: Cochran WG (1977) Sampling Techniques, 3rd ed., eq. 4.2: n₀ = z²·p(1−p)/d², and eq. 4.3 for a
  * lot of N items: n = n₀/(1 + (n₀ − 1)/N). Relative target r: d = r·p. Precision D = SE/p: n₀ = (1−p)/(p·D²).
- * Zero-acceptance (no counted outcome expected, show p < L): n = ln α / ln(1 − L) (METHODS §3.3).
+ * Zero-acceptance (no counted outcome expected, show p < L): n = ln α / ln(1 − L), from the exact
+ * one-sided bound at x = 0, 1 − α^{1/n} (Hanley JA, Lippman-Hand A (1983) If nothing goes wrong, is
+ * everything all right? JAMA 249:1743–1745).
  * Preconditions: 0 < p < 1 (use the Agresti–Coull centre p̃, never 0), target value > 0, 0 < z.
  * Returns: n as a real number (round up), ≤ N when given.
  * Validity: the normal-approximation planning formula; the Wilson interval needs slightly fewer items.

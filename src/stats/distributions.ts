@@ -2,8 +2,8 @@
  * The typed facade over jstat — the only file in the project that imports it.
  *
  * Why a facade: jstat returns sentinels (NaN, Infinity) instead of errors, rounds some results, and is
- * inaccurate in far tails (measured against scipy, see the shared METHODS notes §6). Every function here
- * checks its domain and throws `RangeError("<name> requires <condition>")` for caller mistakes, clips
+ * inaccurate in far tails (measured against scipy: src/stats/README.md, "jstat's accuracy"). Every function
+ * here checks its domain and throws `RangeError("<name> requires <condition>")` for caller mistakes, clips
  * probabilities to [1e-12, 1 − 1e-12] before quantiles, switches Student t to the normal above df 1e4
  * (jstat's t cdf drifts by 3.5e-2 at df 1e6), and computes discrete cdfs from the regularised incomplete
  * gamma/beta functions (jstat's own Poisson/binomial pdf overflow above ~150 / ~1000).
@@ -73,7 +73,8 @@ export function gammaQuantile(p: number, shape: number): number {
 }
 /**
  * Beta(a, b) p-quantile. Guarded because jstat's ibetainv is wrong by orders of magnitude for p ≤ 1e-8 with
- * small a (METHODS §6); the interval methods never need p beyond 1e-6 at confidence ≤ 0.999999.
+ * small a (src/stats/README.md, "jstat's accuracy"); the interval methods never need p beyond 1e-6 at
+ * confidence ≤ 0.999999.
  */
 export function betaQuantile(p: number, a: number, b: number): number {
   const q = requireProbability('betaQuantile', p);

@@ -3,8 +3,8 @@
  * (p, df) so the per-entry path (recompute after every observation, and `replay` over thousands of
  * sequences) pays a Map lookup instead of a numerical inversion.
  *
- * Source: the quantile functions of src/stats/distributions.ts (see its doc block and the shared METHODS
- * notes §6); this file adds only memoisation.
+ * Source: the quantile functions of src/stats/distributions.ts (see its doc block and the accuracy
+ * table in src/stats/README.md); this file adds only memoisation.
  * Preconditions: as the facade (0 < p < 1, df > 0); errors are the facade's RangeErrors.
  * Returns: the p-quantile (left-tail convention), identical to the facade's value.
  * Validity: the cache holds at most MAX_ENTRIES values per function and is emptied when full.

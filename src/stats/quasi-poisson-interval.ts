@@ -4,7 +4,8 @@
  *
  * Source: McCullagh P, Nelder JA (1989) Generalized Linear Models, 2nd ed., §6.2 (quasi-likelihood,
  * dispersion φ estimated by the Pearson statistic, here s²/m); Wedderburn RWM (1974) Biometrika 61:439–447.
- * Interval m·exp(±z·√(φ/T)) with φ = max(1, s²/m) (shared METHODS notes §2.3). One-sided bounds use z₁₋α.
+ * Interval m·exp(±z·√(φ/T)) with φ = max(1, s²/m), so never narrower than the Poisson form. One-sided
+ * bounds use z₁₋α.
  * Preconditions: plots ≥ 1, total T ≥ 0, dispersion φ ≥ 1, 0 < level < 1.
  * Returns: estimate T/plots and the limits per plot; never negative. At T = 0 the lower limit is 0 and the
  * upper is φ times the exact Poisson upper limit for a zero total (½χ²₍1−α/2; 2₎·φ/plots).

@@ -11,13 +11,15 @@
  * Ecology 12:249–251; Taylor LR (1961) Aggregation, variance and the mean, Nature 189:732–735
  * (s² = a·m^b). With D = SE/mean, n·m² D² = a·m^b gives the line
  *   ln Tₙ = ln(D²/a)/(b − 2) + ((b − 1)/(b − 2))·ln n,  i.e.  Tₙ = (D²/a)^{1/(b−2)} · n^{(b−1)/(b−2)}.
- * b = 2 has no line: the fixed size n = a/D² (METHODS §4.5).
+ * b = 2 has no line: the fixed size n = a/D² (Green 1970).
  *
  * Preconditions: a > 0, b > 0, D > 0, n ≥ 1.
  * Returns: the stop total (counts, summed over n plots) and the direction of the stopping inequality;
  * for b = 2 the total is +∞ (below a/D² plots) or 0 (at or beyond), direction 'at-least'.
  * Validity: D is SE/mean, not a confidence half-width (r = z·D). The line is only as good as a and b for
- * this site; realised precision is worse when stopping happens at small n (validate, METHODS §7).
+ * this site; realised precision is worse when stopping happens at small n (validate by simulation, as
+ * Binns MR, Nyrop JP, van der Werf W (2000) Sampling and Monitoring in Crop Protection, CABI, recommend;
+ * this project's check is test/bench/coverage.md).
  *
  * @example greenStopLine({ a: 2, b: 1.5, D: 0.25 }, 10) // { total: 102.4, stopWhen: 'at-least' }
  */

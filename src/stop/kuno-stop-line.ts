@@ -9,12 +9,13 @@
  * Source: Kuno E (1969) A new method of sequential sampling to obtain the population estimates with a
  * fixed level of precision, Researches on Population Ecology 11:127–136; Iwao S (1968) Res. Popul. Ecol.
  * 10:1–20 (m* = α + β·m, i.e. s² = (α + 1)m + (β − 1)m²). With D = SE/mean:
- *   stop when Tₙ ≥ (α + 1) / (D² − (β − 1)/n),  defined only for n > (β − 1)/D² (METHODS §4.5).
+ *   stop when Tₙ ≥ (α + 1) / (D² − (β − 1)/n),  defined only for n > (β − 1)/D² (Kuno 1969).
  *
  * Preconditions: α > −1, D > 0, n ≥ 1.
  * Returns: the stop total (Tₙ ≥ total), or null where the line is undefined (no stopping yet).
  * Validity: D is SE/mean. Realised precision is worse than D when stopping happens at small n or when
- * α, β come from other sites (validate, METHODS §7).
+ * α, β come from other sites (validate by simulation, as Binns, Nyrop & van der Werf 2000 recommend;
+ * this project's check is test/bench/coverage.md).
  *
  * @example kunoStopLine({ alpha: 0.5, beta: 1.3, D: 0.2 }, 20) // 60
  */

@@ -2,8 +2,8 @@
  * Plain warnings for regimes where a stopping rule is known (from the coverage benchmark) not to keep
  * its promise — shown in the setup and beside the verdict.
  *
- * Source: test/bench/coverage.md (this project's Monte Carlo benchmark of METHODS §7, R = 20,000 per
- * cell) and METHODS §4.8. Each warning names the shortfall measured there.
+ * Source: test/bench/coverage.md (this project's Monte Carlo benchmark of the stopping rules, summarised in
+ * src/stop/README.md, "Measured coverage"). Each warning names the shortfall measured there.
  *
  * Preconditions: none. Returns a list of plain-language sentences (empty when nothing to warn about).
  *

@@ -13,7 +13,7 @@
  * its logarithm) the log-likelihood ratio is Λₙ = q·(Sₙ − s·n), so
  *   accept ("below") when Sₙ ≤ −h₀ + s·n,  reject ("above") when Sₙ ≥ h₁ + s·n,
  *   h₀ = ln((1 − α)/β)/q,  h₁ = ln((1 − β)/α)/q,
- * with, per family (METHODS §4.6):
+ * with, per family:
  *   Bernoulli: g₁ = ln(p₁/p₀), g₂ = ln((1 − p₀)/(1 − p₁)), q = g₁ + g₂, s = g₂/q
  *     (Montgomery, Introduction to Statistical Quality Control, sequential sampling plans);
  *   Poisson: q = ln(λ₁/λ₀), s = (λ₁ − λ₀)/q;

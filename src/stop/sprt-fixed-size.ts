@@ -1,6 +1,6 @@
 /**
  * The fixed-sample size with the same error rates as an SPRT — used as the yardstick for the SPRT's
- * truncation ("stop at 3 × the fixed-size equivalent and decide by the midline", METHODS §4.6).
+ * truncation ("stop at 3 × the fixed-size equivalent and decide by the midline", src/stop/README.md, "SPRT").
  *
  * Source: the normal-approximation size for a one-sided test of θ₀ against θ₁ with error rates α, β
  * (e.g. Cochran 1977, Sampling Techniques, ch. 4; any power-analysis text), applied to the statistic x of

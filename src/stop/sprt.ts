@@ -13,8 +13,8 @@
  * first) and θ the arithmetic means (μᵢ = ln θᵢ − σ²/2); the lines are spaced with the 90 % upper
  * confidence bound on σ, or normal on x itself when the study's method is `t`. Truncation at
  * maxN = sprt.maxN ?? setup.max ?? ⌈3 × the fixed-size equivalent⌉ (sprt-fixed-size.ts), deciding by
- * the midline Sₙ ≤ s·n → below (METHODS §4.6). The reported interval is the data kind's interval at the
- * nominal level (descriptive).
+ * the midline Sₙ ≤ s·n → below (src/stop/README.md, "SPRT"). The reported interval is the data kind's
+ * interval at the nominal level (descriptive).
  *
  * Preconditions: setup.sprt present (otherwise the verdict stays `keep going` with an explanation); the
  * shared guards have passed.
@@ -56,7 +56,8 @@ export function sprtModelOf(
   const df = (useRunning ? running.n : m) - 1;
   if (!(sigma > 0)) return null;
   // The lines are spaced with the one-sided 90 % upper confidence bound of σ,
-  // s·√(df/χ²₍0.10, df₎), the "pilot σ with a conservative inflation" of METHODS §4.6.
+  // s·√(df/χ²₍0.10, df₎): Wald's lines assume σ known, so a σ estimated from the pilot is inflated to keep
+  // the error rates conservative (src/stop/README.md, "SPRT"; checked in test/bench/coverage.md).
   const sigmaForSpacing = sigma * Math.sqrt(df / cachedChiSquareQuantile(0.1, df));
   return { family: log ? 'lognormal' : 'normal', sigma, sigmaForSpacing, ...base };
 }

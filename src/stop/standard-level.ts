@@ -11,11 +11,11 @@
  * For an analyst: the internal tail probability is α_int = ρ_kind · α (α = 1 − level; for a two-sided
  * interval each tail gets α_int/2; for log-scale measurements ρ = ρ_log·exp(−κ·s_y²) with s_y the SD of
  * the logs so far, since the selection effect grows with the spread; for counts
- * ρ = max(0.3, ρ_count·exp(−0.7·(I − 1)·min(1, 25/n))) with I = s²/m the dispersion index so far), with ρ_kind calibrated by the coverage benchmark
- * (test/bench/coverage.md: METHODS §7 grid, R = 20,000 per cell, common random numbers) as the largest
- * ρ (smallest cost) for which every cell with n* ≥ 25 covers ≥ nominal − 1 pp. The correction is of the
- * "naive rule at an inflated internal level" family of METHODS §4.8; its need follows from the
- * second-order theory of Woodroofe (1977, Ann. Stat. 5:984–995: coverage deficit ≈ 0.41/n* at 95 % for
+ * ρ = max(0.3, ρ_count·exp(−0.7·(I − 1)·min(1, 25/n))) with I = s²/m the dispersion index so far), with
+ * ρ_kind calibrated by the coverage benchmark (test/bench/coverage.md: its grid, replicates per cell and
+ * common random numbers are stated there) as the largest ρ (smallest cost) for which every cell with
+ * n* ≥ 25 covers ≥ nominal − 1 pp. The correction runs the naive rule at an inflated internal level
+ * (src/stop/README.md, "Measured coverage"); its need follows from the second-order theory of Woodroofe (1977, Ann. Stat. 5:984–995: coverage deficit ≈ 0.41/n* at 95 % for
  * normal data) and is larger for skewed data. Counts additionally use the Chow–Robbins (1965, Ann. Math.
  * Stat. 36:457–462) variance floor s² + c/n with c = 1 count unit (see standard.ts).
  *

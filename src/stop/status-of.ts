@@ -3,7 +3,7 @@
  *
  * Question answered: "which of the four verdicts does this target check mean?" (met → enough,
  * below → below limit, above → above limit, anything else → keep going). Source: the verdict vocabulary of
- * src/model/types.ts (shared CLI.md: `keep going`, `enough`, `below limit`, `above limit`).
+ * src/model/types.ts (src/cli/README.md, "Output": `keep going`, `enough`, `below limit`, `above limit`).
  *
  * @example statusOf('met') // 'enough'
  */

@@ -11,7 +11,7 @@
  * variance, Ann. Math. Stat. 16:243–258. With pilot size m and pilot SD s_m,
  *   N = max(m, ⌊(t₍1−α/2, m−1₎ · s_m / d)²⌋ + 1),
  * and x̄_N ± t₍1−α/2, m−1₎ · s_m/√N (half-width ≤ d) covers the mean with probability ≥ 1 − α exactly for
- * normal data, any σ (METHODS §4.4). One-sided bounds use t₍1−α, m−1₎. As d → 0,
+ * normal data, any σ (Stein 1945). One-sided bounds use t₍1−α, m−1₎. As d → 0,
  * E(N)/n* → (t₍m−1₎/z)² (1.3321 at m = 10, 95 % two-sided).
  *
  * Preconditions: m ≥ 2, pilotSd ≥ 0, d > 0, 0 < level < 1.

@@ -7,7 +7,8 @@
  *
  * For an analyst:
  *   measurement / count (Stein two-stage, Stein 1945): E(N) ≈ max(m, (t₍m−1₎/z)² · n_plan), the
- *     large-n* ratio of METHODS §4.4 (1.3321 at m = 10, 95 % two-sided; one-sided uses t₍1−α₎/z₁₋α).
+ *     large-n* ratio of Stein's procedure (Stein 1945; stein-two-stage.ts): 1.3321 at m = 10, 95 %
+ *     two-sided; one-sided uses t₍1−α₎/z₁₋α.
  *   pass/fail (confidence sequence, beta-binomial-confidence-sequence.ts): the smallest n whose sequence
  *     at the expected number of outcomes round(n·p) meets a ± d margin (d = the margin, or r·p for a
  *     relative target, or |limit − p| for a limit), found by bisection; p = the planning guess (0.5 when

@@ -14,7 +14,8 @@
  *     (exact ≥ 1 − α for normal data; stein-two-stage.ts). Counts add the c/m floor (c = 1) to s_m².
  *   measurement / count, target relative r: the same two-stage plan with d = r·x̄_m (approximate); with the
  *     log-scale (Cox) method, N = smallest n with exp(t₍m−1₎·√(s_y²/n + s_y⁴/(2(n−1)))) − 1 ≤ r from the
- *     pilot's log SD (METHODS §3.5), and the Cox interval at N is reported.
+ *     pilot's log SD (the Cox standard error, Land 1972; Zhou & Gao 1997 — see
+ *     src/plan/log-scale-relative-sample-size.ts), and the Cox interval at N is reported.
  *   measurement / count, target precision D (SE/mean): N = max(m, ⌊(s_m/(D·x̄_m))²⌋ + 1).
  *   pass/fail: the beta–binomial mixture confidence sequence (Robbins 1970; Howard et al. 2021), stop at
  *     the first n ≥ m where it meets the target (margin, relative or limit); time-uniform ≥ 1 − α for any

@@ -2,7 +2,7 @@
  * Parsing field values from text — one value per line, or a CSV with a `value` column — into points,
  * with each problem named by its line. Pure (no Node APIs): the command line and the app's import share it.
  *
- * Rules (shared CLI.md, "Input"): blank lines and lines starting with `#` are ignored; a decimal comma is
+ * Rules (src/cli/README.md, "Input"): blank lines and lines starting with `#` are ignored; a decimal comma is
  * accepted when the line holds one number (`4,25` = 4.25); `<RL` (e.g. `<0.5`) is a value below a
  * reporting limit (a non-detect, measurements only); pass-fail values are 0 or 1; counts are non-negative
  * integers. A CSV is recognised when the first data line is a header with a `value` column (separator
