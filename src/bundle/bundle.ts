@@ -4,7 +4,7 @@
  */
 import type { ObservationRecord, Position, StudyRecord, StudySetup } from '../model/records.ts';
 import { canonicalJson } from './canonical.ts';
-import { sha256Hex } from './sha256.ts';
+import { sha256Hex } from './digest.ts';
 
 export const BUNDLE_FORMAT = 'sure-enough-bundle';
 export const BUNDLE_VERSION = 1;
@@ -18,13 +18,16 @@ export interface Bundle {
   checksum: { algorithm: 'SHA-256'; value: string };
 }
 
-/** SHA-256 (hex) of the canonical JSON (RFC 8785) of `{"events": [...], "study": {...}}`. */
-export function bundleChecksum(study: StudyRecord, events: readonly ObservationRecord[]): string {
+/**
+ * SHA-256 (hex) of the canonical JSON (RFC 8785) of `{"events": [...], "study": {...}}`. Asynchronous (the
+ * platform's digest): compute it before opening an IndexedDB transaction, never inside one.
+ */
+export function bundleChecksum(study: StudyRecord, events: readonly ObservationRecord[]): Promise<string> {
   return sha256Hex(canonicalJson({ study, events }));
 }
 
 /** SHA-256 (hex) of the canonical JSON of the event log alone (shown on the report). */
-export function eventLogHash(events: readonly ObservationRecord[]): string {
+export function eventLogHash(events: readonly ObservationRecord[]): Promise<string> {
   return sha256Hex(canonicalJson(events));
 }
 
@@ -109,20 +112,24 @@ export function cleanEvent(e: ObservationRecord): ObservationRecord {
   return c;
 }
 
+/** A study record with only the bundle's members (storage-only members left out), as a fresh copy. */
+export function cleanStudy(study: StudyRecord): StudyRecord {
+  return { ...copyJson(pick(study, STUDY_KEYS)), setup: copyJson(pick(study.setup, SETUP_KEYS)) };
+}
+
 /**
  * Builds a bundle from stored records: keeps only the schema's fields (storage-only fields are left
  * out), orders events by seq, and computes the checksum. The records are copied, not shared.
  */
-export function makeBundle(study: StudyRecord, events: readonly ObservationRecord[]): Bundle {
-  const s = pick(study, STUDY_KEYS);
-  const cleanStudy: StudyRecord = { ...copyJson(s), setup: copyJson(pick(study.setup, SETUP_KEYS)) };
+export async function makeBundle(study: StudyRecord, events: readonly ObservationRecord[]): Promise<Bundle> {
+  const s = cleanStudy(study);
   const cleanEvents = [...events].sort((a, b) => a.seq - b.seq).map(cleanEvent);
   return {
     format: BUNDLE_FORMAT,
     version: BUNDLE_VERSION,
-    study: cleanStudy,
+    study: s,
     events: cleanEvents,
-    checksum: { algorithm: 'SHA-256', value: bundleChecksum(cleanStudy, cleanEvents) },
+    checksum: { algorithm: 'SHA-256', value: await bundleChecksum(s, cleanEvents) },
   };
 }
 

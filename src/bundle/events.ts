@@ -1,5 +1,6 @@
 /**
- * Reading an event log: which entries count, which are voided, and the core's Point[] for assess.
+ * Reading an event log: which entries count, which are voided, the core's Point[] for assess, each
+ * collector's share and the likely duplicates.
  */
 import type { ObservationRecord } from '../model/records.ts';
 import type { Point } from '../model/types.ts';
@@ -100,5 +101,57 @@ export function collectorShares(events: readonly ObservationRecord[]): Collector
   }
   const out = [...by.values()].sort((a, b) => (a.device < b.device ? -1 : a.device > b.device ? 1 : 0));
   for (const s of out) s.share = total === 0 ? 0 : s.counted / total;
+  return out;
+}
+
+/**
+ * The pooled log's order (merge.ts sequences by it; likely duplicates list their ids by it): by time (`at`
+ * as an instant, to the millisecond), then by `device` (code-unit order), then by `id`.
+ */
+export function compareEvents(a: ObservationRecord, b: ObservationRecord): number {
+  const ta = Date.parse(a.at);
+  const tb = Date.parse(b.at);
+  if (ta !== tb) return ta - tb;
+  if (a.device !== b.device) return a.device < b.device ? -1 : 1;
+  return a.id < b.id ? -1 : a.id > b.id ? 1 : 0;
+}
+
+export interface LikelyDuplicate {
+  label: string;
+  stratum?: string;
+  cluster?: string;
+  /** The counted entries with this label, by time, device and id (compareEvents). */
+  ids: string[];
+  devices: string[];
+}
+
+/**
+ * Counted entries sharing (stratum, cluster, label) across two or more devices. Independent of `seq`, so a
+ * log pooled by `merge` (re-sequenced) and the same log pooled on a phone (appended) give the same list:
+ * groups in the order of their earliest entry, ids within a group by compareEvents.
+ */
+export function likelyDuplicates(events: readonly ObservationRecord[]): LikelyDuplicate[] {
+  const voided = voidedIds(events);
+  const counted = events
+    .filter((e) => !isVoid(e) && !voided.has(e.id) && e.value !== undefined)
+    .sort(compareEvents);
+  const groups = new Map<string, ObservationRecord[]>();
+  for (const e of counted) {
+    if (e.label === undefined || e.label.trim() === '') continue;
+    const key = JSON.stringify([e.stratum ?? null, e.cluster ?? null, e.label.trim()]);
+    const g = groups.get(key);
+    if (g) g.push(e);
+    else groups.set(key, [e]);
+  }
+  const out: LikelyDuplicate[] = [];
+  for (const g of groups.values()) {
+    const devices = [...new Set(g.map((e) => e.device))].sort();
+    if (devices.length < 2) continue;
+    const first = g[0]!;
+    const d: LikelyDuplicate = { label: first.label!.trim(), ids: g.map((e) => e.id), devices };
+    if (first.stratum !== undefined) d.stratum = first.stratum;
+    if (first.cluster !== undefined) d.cluster = first.cluster;
+    out.push(d);
+  }
   return out;
 }

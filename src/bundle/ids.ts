@@ -6,12 +6,12 @@
  * (re-importing it changes nothing), while different seeds collide with negligible probability.
  * `shiftIso(time, seconds)`: an RFC 3339 time moved by whole seconds, keeping its UTC offset.
  *
- * @example derivedUuid('x').length === 36
+ * @example (await derivedUuid('x')).length === 36
  */
-import { sha256Hex } from './sha256.ts';
+import { sha256Hex } from './digest.ts';
 
-export function derivedUuid(seed: string): string {
-  const h = sha256Hex(seed).split('');
+export async function derivedUuid(seed: string): Promise<string> {
+  const h = (await sha256Hex(seed)).split('');
   h[12] = '8'; // version 8
   h[16] = ((Number.parseInt(h[16]!, 16) & 0x3) | 0x8).toString(16); // variant 10xx
   const s = h.join('');

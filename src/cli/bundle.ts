@@ -13,8 +13,8 @@ import { derivedUuid, formatIso, shiftIso } from '../bundle/ids.ts';
 import { isIsoTimeWithOffset, isUuid, parseBundle } from '../bundle/validate.ts';
 import type { ObservationRecord, Position, StudyRecord, StudySetup } from '../model/records.ts';
 import { parseValues, splitCsv } from '../validate/parse-values.ts';
-import { type ParsedArgs, readInput, UsageError } from './io.ts';
-import { parseStudyFlags, rejectUnknownFlags } from './study-flags.ts';
+import { type FlagSpec, type ParsedArgs, readInput, UsageError } from './io.ts';
+import { parseStudyFlags, STUDY_FLAGS } from './study-flags.ts';
 
 export const summary = 'build a study bundle (JSON) the app can import from a list of values';
 
@@ -31,6 +31,7 @@ const OWN_FLAGS = [
   'reporting-limit',
   'notes',
 ];
+export const flags: FlagSpec = { ...STUDY_FLAGS, ...Object.fromEntries(OWN_FLAGS.map((f) => [f, 'string'])) };
 
 export const help = `usage: sure-enough bundle [FILE|-] --kind KIND [study flags] [bundle flags]
 
@@ -204,8 +205,7 @@ function buildSetup(f: Map<string, string>): StudySetup {
   return setup;
 }
 
-export function run(args: ParsedArgs): string {
-  rejectUnknownFlags(args.flags, OWN_FLAGS);
+export async function run(args: ParsedArgs): Promise<string> {
   if (args.positional.length > 1)
     throw new UsageError(
       `bundle takes one input (FILE or -), got ${args.positional.length}: ${args.positional.join(' ')}`,
@@ -263,11 +263,14 @@ export function run(args: ParsedArgs): string {
   const study: StudyRecord = { id, name, createdAt: at, setup, version: 1 };
   const notes = optionalText(f, 'notes');
   if (notes !== undefined) study.notes = notes;
+  const ids = await Promise.all(
+    parsed.points.map((_, i) => derivedUuid(`${id}/${extras[i]!.device ?? deviceFlag}/${at}/${i + 1}`)),
+  );
   const events: ObservationRecord[] = parsed.points.map((p, i) => {
     const x = extras[i]!;
     const device = x.device ?? deviceFlag;
     const e: ObservationRecord = {
-      id: derivedUuid(`${id}/${device}/${at}/${i + 1}`),
+      id: ids[i]!,
       studyId: id,
       seq: i + 1,
       at: x.at ?? shiftIso(at, i),
@@ -282,9 +285,9 @@ export function run(args: ParsedArgs): string {
     if (x.note !== undefined) e.note = x.note;
     return e;
   });
-  const out = serializeBundle(makeBundle(study, events));
+  const out = serializeBundle(await makeBundle(study, events));
   // Safety net: what this command writes must pass the same checks as any imported bundle.
-  const check = parseBundle(out);
+  const check = await parseBundle(out);
   if (!check.ok) throw new UsageError(`the bundle would not be valid:\n  ${check.problems.join('\n  ')}`);
   return out;
 }

@@ -10,7 +10,7 @@ import { dwcTables } from '../export/dwc.ts';
 import { geoJsonText } from '../export/geojson.ts';
 import { assessInputCsv } from '../export/recipe.ts';
 import { reportHtml } from '../export/report.ts';
-import { type ParsedArgs, readInput, UsageError } from './io.ts';
+import { type FlagSpec, type ParsedArgs, readInput, UsageError } from './io.ts';
 
 export const summary =
   'a study bundle as CSV, GeoJSON, Darwin Core tables, a printable HTML report or values for assess';
@@ -42,18 +42,17 @@ A bundle that fails any check is refused: the problems are listed on stderr (exi
 `;
 
 /** Reads and validates a bundle; every problem becomes a UsageError naming the file. */
-export function readBundle(file: string | undefined): Bundle {
+export async function readBundle(file: string | undefined): Promise<Bundle> {
   const name = file === undefined || file === '-' ? 'standard input' : file;
-  const result = parseBundle(readInput(file));
+  const result = await parseBundle(readInput(file));
   if (!result.ok)
     throw new UsageError(`${name}: not a valid study bundle:\n  ${result.problems.join('\n  ')}`);
   return result.bundle;
 }
 
-export function run(args: ParsedArgs): string {
-  for (const k of args.flags.keys())
-    if (!['format', 'dictionary', 'table'].includes(k))
-      throw new UsageError(`unknown flag --${k}; see \`sure-enough help export\``);
+export const flags: FlagSpec = { format: 'string', dictionary: 'boolean', table: 'string' };
+
+export async function run(args: ParsedArgs): Promise<string> {
   const format = args.flags.get('format');
   if (format === undefined) throw new UsageError('flag --format is required: csv, geojson, dwc or report');
   if (!['csv', 'geojson', 'dwc', 'report', 'values'].includes(format))
@@ -69,7 +68,7 @@ export function run(args: ParsedArgs): string {
     throw new UsageError(`flag --table: "${table}" is not one of event, occurrence`);
   if (args.positional.length !== 1)
     throw new UsageError(`export takes one BUNDLE (FILE or -), got ${args.positional.length}`);
-  const bundle = readBundle(args.positional[0]);
+  const bundle = await readBundle(args.positional[0]);
   switch (format) {
     case 'csv':
       return dictionary ? dataDictionaryCsv(bundle) : eventsCsv(bundle);
@@ -85,6 +84,6 @@ export function run(args: ParsedArgs): string {
       return `# event.csv\n${r.event}\n# occurrence.csv\n${r.occurrence}`;
     }
     default:
-      return reportHtml(bundle, { coverage: coverageStatement(bundle.study.setup) });
+      return await reportHtml(bundle, { coverage: coverageStatement(bundle.study.setup) });
   }
 }

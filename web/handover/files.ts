@@ -35,18 +35,18 @@ export function fileStem(study: StudyRecord, now = new Date()): string {
   return `${slug}-${d}`;
 }
 
-export function bundleOf(study: StudyRecord, records: readonly ObservationRecord[]): Bundle {
+export function bundleOf(study: StudyRecord, records: readonly ObservationRecord[]): Promise<Bundle> {
   return makeBundle(study, records);
 }
 
 export type Built = { ok: true; files: OutFile[] } | { ok: false; message: string };
 
-export function buildExport(
+export async function buildExport(
   format: ExportFormat,
   study: StudyRecord,
   records: readonly ObservationRecord[],
-): Built {
-  const bundle = bundleOf(study, records);
+): Promise<Built> {
+  const bundle = await bundleOf(study, records);
   const stem = fileStem(study);
   switch (format) {
     case 'bundle':
@@ -87,7 +87,7 @@ export function buildExport(
           {
             name: `${stem}-report.html`,
             type: 'text/html',
-            text: reportHtml(bundle, { coverage: coverageStatement(study.setup) }),
+            text: await reportHtml(bundle, { coverage: coverageStatement(study.setup) }),
           },
         ],
       };

@@ -56,7 +56,7 @@ export function HandoverPanel({ study, records, lastSeq }: ReportSlotProps) {
   async function run(format: ExportFormat) {
     setStatus(null);
     const { buildExport } = await loadFiles();
-    const built = buildExport(format, study, records);
+    const built = await buildExport(format, study, records);
     if (!built.ok) {
       setStatus({ ok: false, text: built.message });
       return;
@@ -94,7 +94,7 @@ export function HandoverPanel({ study, records, lastSeq }: ReportSlotProps) {
     // Open the window within the tap (popup blockers), fill it once the report is built.
     const w = window.open('', '_blank');
     const { buildExport } = await loadFiles();
-    const built = buildExport('report', study, records);
+    const built = await buildExport('report', study, records);
     if (!built.ok) return;
     if (!w) {
       setStatus({ ok: false, text: 'The browser blocked the report window; use "Report file" instead.' });

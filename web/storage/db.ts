@@ -1,9 +1,10 @@
 /**
- * Opening the database: cumulative `if (oldVersion < N)` upgrade steps, and the two connection hazards
+ * Opening the database: cumulative `if (oldVersion < N)` upgrade steps (SCHEMA-v1.md, SCHEMA-v2.md), and
+ * the two connection hazards
  * a field phone meets — another tab upgrading the schema (`blocking`: we close and ask for a reload) and
  * the browser dropping the connection (`terminated`: the next call reopens).
  */
-import { type IDBPDatabase, openDB } from 'idb';
+import { type IDBPDatabase, type IDBPTransaction, openDB, type StoreNames } from 'idb';
 import { DB_NAME, DB_VERSION, type SureEnoughDB } from './schema.ts';
 
 export type DB = IDBPDatabase<SureEnoughDB>;
@@ -32,7 +33,11 @@ export class StorageError extends Error {
   }
 }
 
-export function upgradeSteps(db: IDBPDatabase<SureEnoughDB>, oldVersion: number): void {
+export function upgradeSteps(
+  db: IDBPDatabase<SureEnoughDB>,
+  oldVersion: number,
+  tx: IDBPTransaction<SureEnoughDB, StoreNames<SureEnoughDB>[], 'versionchange'>,
+): void {
   if (oldVersion < 1) {
     const studies = db.createObjectStore('studies', { keyPath: 'id' });
     studies.createIndex('byCreatedAt', 'createdAt');
@@ -42,6 +47,13 @@ export function upgradeSteps(db: IDBPDatabase<SureEnoughDB>, oldVersion: number)
     const exp = db.createObjectStore('exports', { keyPath: 'id' });
     exp.createIndex('byStudy', 'studyId');
     db.createObjectStore('meta');
+  }
+  if (oldVersion < 2) {
+    // Two phones may each void the same entry; pooling keeps both voids (src/bundle/pool.ts), which a
+    // unique index refused. The phone's own void path still refuses a second void (observations.ts).
+    const obs = tx.objectStore('observations');
+    obs.deleteIndex('byVoids');
+    obs.createIndex('byVoids', 'voids', { unique: false });
   }
 }
 
@@ -56,7 +68,7 @@ export function getDb(): Promise<DB> {
   }
   if (!dbPromise) {
     const p = openDB<SureEnoughDB>(DB_NAME, DB_VERSION, {
-      upgrade: (db, oldVersion) => upgradeSteps(db, oldVersion),
+      upgrade: (db, oldVersion, _newVersion, tx) => upgradeSteps(db, oldVersion, tx),
       blocked: () => emit('blocked'),
       blocking: () => {
         closedForUpgrade = true;

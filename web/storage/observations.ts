@@ -75,7 +75,11 @@ async function checkVoidable(tx: WriteTx, studyId: string, targetId: string): Pr
   if (!target || target.studyId !== studyId || target.value === undefined) {
     throw new StorageError('Not saved: that entry is not in this study.', 'NotFound');
   }
-  if (await store.index('byVoids').getKey(targetId)) {
+  // From schema version 2 the byVoids index is not unique (two phones' voids of one entry are both kept
+  // on import), so this check is what stops this phone voiding an entry twice. It runs in the same
+  // readwrite transaction as the add, and IndexedDB runs readwrite transactions on a store one at a time,
+  // so a second tab cannot slip a void in between.
+  if ((await store.index('byVoids').getKey(targetId)) !== undefined) {
     throw new StorageError('Not saved: that entry was already voided.', 'AlreadyVoided');
   }
 }

@@ -1,6 +1,8 @@
 /**
- * The IndexedDB schema (typed for idb). Version 1's shape is frozen in SCHEMA-v1.md: a later version adds
- * an `if (oldVersion < 2)` step in db.ts and keeps a fixture of v1 for the upgrade test.
+ * The IndexedDB schema (typed for idb). Each version's shape is frozen in its own page: SCHEMA-v1.md, and
+ * SCHEMA-v2.md (the current one: `byVoids` no longer unique). A later version adds an
+ * `if (oldVersion < N)` step in db.ts, a SCHEMA-vN.md, and keeps fixtures of the older versions for the
+ * upgrade tests (e2e/fixtures/schema-v1.json).
  *
  * - `studies`: one record per study setup version. The setup is never edited once an observation exists
  *   (`lockedAt`); a changed setup is a new record whose `supersedes` names the old one. Only the
@@ -13,7 +15,7 @@ import type { DBSchema } from 'idb';
 import type { ObservationRecord, StudyRecord } from '../core.ts';
 
 export const DB_NAME = 'sure-enough';
-export const DB_VERSION = 1;
+export const DB_VERSION = 2;
 
 /** A study as stored: the shared StudyRecord plus the app's housekeeping (all optional, additive). */
 export interface StoredStudy extends StudyRecord {
@@ -51,6 +53,7 @@ export interface SureEnoughDB extends DBSchema {
   observations: {
     key: string;
     value: ObservationRecord;
+    /** byVoids: not unique from version 2 (two phones may each void one entry). */
     indexes: { byStudySeq: [string, number]; byVoids: string };
   };
   exports: { key: string; value: ExportRecord; indexes: { byStudy: string } };

@@ -16,18 +16,18 @@ a.push(voidOf(st, a[1]!, 5, uuid(3, 1)));
 // phone B: interleaved in time (starts 30 s later), labels Q3 (clash with A) and Q11, Q12.
 const bRaw = entries(st, [4, 1, 6], 'phone-B', 4, 0, (i) => ({ label: ['Q3', 'Q11', 'Q12'][i]! }));
 const b = bRaw.map((e) => ({ ...e, at: e.at.replace(':00+', ':20+') }));
-const A = makeBundle(st, a);
-const B = makeBundle(st, b);
+const A = await makeBundle(st, a);
+const B = await makeBundle(st, b);
 
-function merged(x = A, y = B) {
-  const r = mergeBundles(x, y);
+async function merged(x = A, y = B) {
+  const r = await mergeBundles(x, y);
   if (!r.ok) throw new Error(r.message);
   return r;
 }
 
 describe('mergeBundles', () => {
-  it('union by id, re-sequenced by time, device, id; result validates', () => {
-    const r = merged();
+  it('union by id, re-sequenced by time, device, id; result validates', async () => {
+    const r = await merged();
     expect(r.report.added).toBe(3);
     expect(r.report.alreadyPresent).toBe(0);
     const ev = r.bundle.events;
@@ -43,66 +43,66 @@ describe('mergeBundles', () => {
       'phone-B:Q12',
       'phone-A:Q4',
     ]);
-    const check = parseBundle(serializeBundle(r.bundle));
+    const check = await parseBundle(serializeBundle(r.bundle));
     expect(check.ok).toBe(true);
   });
-  it('counted values are the union of both phones (voided entry left out)', () => {
-    const values = pointsOf(merged().bundle.events).map((p) => p.value);
+  it('counted values are the union of both phones (voided entry left out)', async () => {
+    const values = pointsOf((await merged()).bundle.events).map((p) => p.value);
     expect([...values].sort()).toEqual([1, 2, 3, 4, 5, 6]);
   });
-  it('the same bundle twice changes nothing', () => {
-    const once = merged().bundle;
-    const twice = mergeBundles(once, B);
+  it('the same bundle twice changes nothing', async () => {
+    const once = (await merged()).bundle;
+    const twice = await mergeBundles(once, B);
     expect(twice.ok).toBe(true);
     if (twice.ok) {
       expect(twice.report.added).toBe(0);
       expect(twice.report.alreadyPresent).toBe(3);
       expect(twice.bundle).toBe(once);
     }
-    const self = mergeBundles(A, A);
+    const self = await mergeBundles(A, A);
     expect(self.ok && self.bundle).toBe(A);
   });
-  it('order of pooling does not matter (A+B equals B+A)', () => {
-    expect(serializeBundle(merged(A, B).bundle)).toBe(serializeBundle(merged(B, A).bundle));
+  it('order of pooling does not matter (A+B equals B+A)', async () => {
+    expect(serializeBundle((await merged(A, B)).bundle)).toBe(serializeBundle((await merged(B, A)).bundle));
   });
-  it('refuses a different study', () => {
+  it('refuses a different study', async () => {
     const other = study({}, { id: uuid(7, 0), name: 'Other meadow' });
-    const r = mergeBundles(A, makeBundle(other, entries(other, [1], 'phone-C', 6)));
+    const r = await mergeBundles(A, await makeBundle(other, entries(other, [1], 'phone-C', 6)));
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.message).toMatch(/^refused: different studies \("Sedge plots, north meadow"/);
   });
-  it('refuses the same study with a different setup, naming the difference', () => {
+  it('refuses the same study with a different setup, naming the difference', async () => {
     const changed = study({ level: 0.9 });
-    const r = mergeBundles(A, makeBundle(changed, entries(changed, [1], 'phone-C', 6)));
+    const r = await mergeBundles(A, await makeBundle(changed, entries(changed, [1], 'phone-C', 6)));
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.message).toContain('level: 0.95 vs 0.9');
   });
-  it('refuses an event whose content differs between the bundles', () => {
-    const altered = makeBundle(
+  it('refuses an event whose content differs between the bundles', async () => {
+    const altered = await makeBundle(
       st,
       a.map((e, i) => (i === 2 ? { ...e, value: 50 } : e)),
     );
-    const r = mergeBundles(A, altered);
+    const r = await mergeBundles(A, altered);
     expect(r.ok).toBe(false);
     if (!r.ok) expect(r.message).toContain(a[2]!.id);
   });
-  it('flags likely duplicates (same label, two devices), keeps both', () => {
-    const r = merged();
+  it('flags likely duplicates (same label, two devices), keeps both', async () => {
+    const r = await merged();
     expect(r.report.duplicates).toEqual([
       { label: 'Q3', ids: [b[0]!.id, a[2]!.id], devices: ['phone-A', 'phone-B'] },
     ]);
     expect(pointsOf(r.bundle.events)).toHaveLength(6);
   });
-  it('a voided entry with a clashing label is not a duplicate; same label in other strata is not either', () => {
+  it('a voided entry with a clashing label is not a duplicate; same label in other strata is not either', async () => {
     const s2 = entries(st, [1, 1], 'phone-C', 8, 10, (i) => ({
       label: 'Q1',
       stratum: i === 0 ? 'wet' : 'dry',
     }));
-    const r = merged(A, makeBundle(st, s2));
+    const r = await merged(A, await makeBundle(st, s2));
     expect(r.report.duplicates).toEqual([]);
   });
-  it("reports each collector's share of counted entries", () => {
-    expect(merged().report.shares).toEqual([
+  it("reports each collector's share of counted entries", async () => {
+    expect((await merged()).report.shares).toEqual([
       { device: 'phone-A', entries: 4, counted: 3, voids: 1, share: 0.5 },
       { device: 'phone-B', entries: 3, counted: 3, voids: 0, share: 0.5 },
     ]);
@@ -110,11 +110,11 @@ describe('mergeBundles', () => {
 });
 
 describe('mergeBundles — study records that differ outside the setup', () => {
-  it('keeps the record created first, whichever bundle comes first, and names the differences', () => {
+  it('keeps the record created first, whichever bundle comes first, and names the differences', async () => {
     const later = { ...st, name: 'Sedge plots (desk copy)', createdAt: '2026-05-04T10:00:00+02:00' };
-    const C = makeBundle(later, b);
-    const r1 = mergeBundles(A, C);
-    const r2 = mergeBundles(C, A);
+    const C = await makeBundle(later, b);
+    const r1 = await mergeBundles(A, C);
+    const r2 = await mergeBundles(C, A);
     expect(r1.ok && r2.ok).toBe(true);
     if (!r1.ok || !r2.ok) return;
     expect(r1.bundle.study.name).toBe('Sedge plots, north meadow');

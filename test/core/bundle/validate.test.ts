@@ -12,7 +12,7 @@ import { canonicalJson } from '../../../src/bundle/canonical.ts';
 import { isIsoTimeWithOffset, parseBundle } from '../../../src/bundle/validate.ts';
 import { entries, study, uuid, voidOf } from './make.ts';
 
-function good() {
+async function good() {
   const st = study();
   const ev = entries(st, [3, 0, 5, 2, 7], 'phone-A', 2, 0, (i) => ({
     label: `Q${i + 1}`,
@@ -24,12 +24,12 @@ function good() {
 
 /** Serialise, let `mutate` damage the parsed JSON, and re-checksum unless told not to. */
 // biome-ignore lint/suspicious/noExplicitAny: the test damages arbitrary parsed JSON
-function damaged(mutate: (b: Record<string, any>) => void, rechecksum = true): string {
-  const b = JSON.parse(serializeBundle(good()));
+async function damaged(mutate: (b: Record<string, any>) => void, rechecksum = true): Promise<string> {
+  const b = JSON.parse(serializeBundle(await good()));
   mutate(b);
   if (rechecksum && b.study && Array.isArray(b.events)) {
     try {
-      b.checksum.value = bundleChecksum(b.study, b.events);
+      b.checksum.value = await bundleChecksum(b.study, b.events);
     } catch {
       /* values JSON cannot hold stay as they are */
     }
@@ -37,8 +37,8 @@ function damaged(mutate: (b: Record<string, any>) => void, rechecksum = true): s
   return JSON.stringify(b);
 }
 
-function problemsOf(text: string): string[] {
-  const r = parseBundle(text);
+async function problemsOf(text: string | Promise<string>): Promise<string[]> {
+  const r = await parseBundle(await text);
   if (r.ok) throw new Error('expected problems');
   return r.problems;
 }
@@ -96,40 +96,41 @@ describe('isIsoTimeWithOffset (RFC 3339 §5.6)', () => {
 });
 
 describe('parseBundle', () => {
-  it('round trip: bundle → text → parse gives the identical bundle', () => {
-    const b = good();
-    const r = parseBundle(serializeBundle(b));
+  it('round trip: bundle → text → parse gives the identical bundle', async () => {
+    const b = await good();
+    const r = await parseBundle(serializeBundle(b));
     expect(r.ok).toBe(true);
     if (r.ok) expect(r.bundle).toEqual(b);
     if (r.ok) expect(serializeBundle(r.bundle)).toBe(serializeBundle(b));
   });
 
-  it('bad JSON', () => {
-    const p = problemsOf('{"format": "sure-enough-bundle", ');
+  it('bad JSON', async () => {
+    const p = await problemsOf('{"format": "sure-enough-bundle", ');
     expect(p).toHaveLength(1);
     expect(p[0]).toMatch(/^file: not valid JSON/);
   });
-  it('not an object', () => expect(problemsOf('[1,2]')[0]).toMatch(/^file: must be a JSON object/));
-  it('wrong format', () =>
-    expect(problemsOf(damaged((b) => (b.format = 'something-else')))).toEqual([
+  it('not an object', async () =>
+    expect((await problemsOf('[1,2]'))[0]).toMatch(/^file: must be a JSON object/));
+  it('wrong format', async () =>
+    expect(await problemsOf(damaged((b) => (b.format = 'something-else')))).toEqual([
       'format: not a study bundle (expected "sure-enough-bundle", got "something-else")',
     ]));
-  it('newer version', () =>
-    expect(problemsOf(damaged((b) => (b.version = 2)))[0]).toMatch(
+  it('newer version', async () =>
+    expect((await problemsOf(damaged((b) => (b.version = 2))))[0]).toMatch(
       /^version: .*got 2 \(made by a newer version/,
     ));
-  it('failed checksum: one value changed after export', () => {
-    const p = problemsOf(damaged((b) => (b.events[2].value = 6), false));
+  it('failed checksum: one value changed after export', async () => {
+    const p = await problemsOf(damaged((b) => (b.events[2].value = 6), false));
     expect(p).toHaveLength(1);
     expect(p[0]).toMatch(/^checksum\.value: does not match the content/);
   });
-  it('failed checksum: study name changed after export', () => {
-    expect(problemsOf(damaged((b) => (b.study.name = 'x'), false))[0]).toMatch(/^checksum\.value/);
+  it('failed checksum: study name changed after export', async () => {
+    expect((await problemsOf(damaged((b) => (b.study.name = 'x'), false)))[0]).toMatch(/^checksum\.value/);
   });
-  it('missing checksum', () =>
-    expect(problemsOf(damaged((b) => delete b.checksum))).toEqual(['checksum: missing']));
-  it('missing fields name each place', () => {
-    const p = problemsOf(
+  it('missing checksum', async () =>
+    expect(await problemsOf(damaged((b) => delete b.checksum))).toEqual(['checksum: missing']));
+  it('missing fields name each place', async () => {
+    const p = await problemsOf(
       damaged((b) => {
         delete b.study.setup.level;
         delete b.events[3].at;
@@ -140,14 +141,14 @@ describe('parseBundle', () => {
     expect(p).toContain('events[3].at: missing');
     expect(p).toContain('events[0].device: missing');
   });
-  it('bad time names the event', () => {
-    const p = problemsOf(damaged((b) => (b.events[4].at = '2026-05-04 09:15')));
+  it('bad time names the event', async () => {
+    const p = await problemsOf(damaged((b) => (b.events[4].at = '2026-05-04 09:15')));
     expect(p).toEqual([
       'events[4].at: not an ISO 8601 time with UTC offset (e.g. 2026-05-04T09:15:00+02:00), got "2026-05-04 09:15"',
     ]);
   });
-  it('values that do not fit the data kind', () => {
-    const p = problemsOf(
+  it('values that do not fit the data kind', async () => {
+    const p = await problemsOf(
       damaged((b) => {
         b.events[0].value = 2.5;
         b.events[1].value = -1;
@@ -160,15 +161,17 @@ describe('parseBundle', () => {
       'events[2].value: must be a number, got "4"',
     ]);
   });
-  it('position out of range and swapped', () => {
-    const p = problemsOf(damaged((b) => (b.events[0].position = { lat: 152.1, lon: 5.2, accuracyM: -1 })));
+  it('position out of range and swapped', async () => {
+    const p = await problemsOf(
+      damaged((b) => (b.events[0].position = { lat: 152.1, lon: 5.2, accuracyM: -1 })),
+    );
     expect(p).toEqual([
       'events[0].position.lat: must be a latitude in degrees, −90 to 90, got 152.1',
       'events[0].position.accuracyM: must be metres ≥ 0, got -1',
     ]);
   });
-  it('seq out of order, duplicate id, dangling void, foreign study id', () => {
-    const p = problemsOf(
+  it('seq out of order, duplicate id, dangling void, foreign study id', async () => {
+    const p = await problemsOf(
       damaged((b) => {
         b.events[1].seq = 7;
         b.events[2].id = b.events[0].id;
@@ -181,8 +184,8 @@ describe('parseBundle', () => {
     expect(p).toContain(`events[5].voids: no entry with id ${uuid(9, 9)} in this bundle`);
     expect(p.some((x) => x.startsWith('events[3].studyId: '))).toBe(true);
   });
-  it('unknown fields and a void with a value', () => {
-    const p = problemsOf(
+  it('unknown fields and a void with a value', async () => {
+    const p = await problemsOf(
       damaged((b) => {
         b.events[5].value = 3;
         b.study.colour = 'red';
@@ -191,8 +194,8 @@ describe('parseBundle', () => {
     expect(p).toContain('study.colour: unknown field (not in bundle format version 1)');
     expect(p).toContain('events[5].value: a void event carries no value');
   });
-  it('bad setup', () => {
-    const p = problemsOf(
+  it('bad setup', async () => {
+    const p = await problemsOf(
       damaged((b) => {
         b.study.setup.kind = 'weight';
         b.study.setup.level = 95;
@@ -203,13 +206,13 @@ describe('parseBundle', () => {
     expect(p).toContain('study.setup.level: must be between 0 and 1, got 95');
     expect(p).toContain('study.setup.target.value: must be greater than 0, got -2');
   });
-  it('never a partial bundle: any problem means no bundle', () => {
-    const r = parseBundle(damaged((b) => (b.events[4].at = 'yesterday')));
+  it('never a partial bundle: any problem means no bundle', async () => {
+    const r = await parseBundle(await damaged((b) => (b.events[4].at = 'yesterday')));
     expect(r.ok).toBe(false);
     expect('bundle' in r).toBe(false);
   });
-  it('lists at most 50 problems', () => {
-    const p = problemsOf(
+  it('lists at most 50 problems', async () => {
+    const p = await problemsOf(
       damaged((b) => {
         for (let i = 0; i < 60; i++) b.events.push({ ...b.events[0], seq: 7 + i, at: 'x', id: uuid(5, i) });
       }),
@@ -220,8 +223,8 @@ describe('parseBundle', () => {
 });
 
 describe('checksum reproduced outside the app (the Python recipe in src/bundle/SCHEMA.md)', () => {
-  it('Python json + hashlib give the same SHA-256', () => {
-    const b = good();
+  it('Python json + hashlib give the same SHA-256', async () => {
+    const b = await good();
     const py = execFileSync(
       'python3',
       [
@@ -235,7 +238,7 @@ describe('checksum reproduced outside the app (the Python recipe in src/bundle/S
 });
 
 describe('setup members added for strata and designs', () => {
-  it('a stratified setup round-trips; bad strata are named', () => {
+  it('a stratified setup round-trips; bad strata are named', async () => {
     const st = study({
       strata: [
         { name: 'wet', weight: 2 },
@@ -243,11 +246,11 @@ describe('setup members added for strata and designs', () => {
       ],
       nonDetects: 'kaplan-meier',
     });
-    const b = makeBundle(
+    const b = await makeBundle(
       st,
       entries(st, [1, 2], 'x', 2, 0, (i) => ({ stratum: i ? 'dry' : 'wet' })),
     );
-    const r = parseBundle(serializeBundle(b));
+    const r = await parseBundle(serializeBundle(b));
     expect(r.ok && r.bundle.study.setup.strata).toEqual(st.setup.strata);
     const bad = JSON.parse(serializeBundle(b));
     bad.study.setup.strata = [
@@ -255,8 +258,8 @@ describe('setup members added for strata and designs', () => {
       { name: 'wet', weight: 1, colour: 'red' },
     ];
     bad.study.setup.design = 'grid';
-    bad.checksum.value = bundleChecksum(bad.study, bad.events);
-    const p = problemsOf(JSON.stringify(bad));
+    bad.checksum.value = await bundleChecksum(bad.study, bad.events);
+    const p = await problemsOf(JSON.stringify(bad));
     expect(p).toEqual([
       'study.setup.design: must be "composite" when present, got "grid"',
       'study.setup.strata[0].weight: must be greater than 0, got 0',
@@ -264,12 +267,12 @@ describe('setup members added for strata and designs', () => {
       'study.setup.strata[1].name: "wet" is listed twice',
     ]);
   });
-  it('makeBundle leaves out storage-only members but keeps every record member', () => {
+  it('makeBundle leaves out storage-only members but keeps every record member', async () => {
     const st = { ...study(), lockedAt: '2026-05-04T09:00:00+02:00', archivedAt: undefined };
     const ev = entries(st, [1], 'x', 2).map((e) => ({ ...e, localOnly: 1 }));
-    const b = makeBundle(st, ev);
+    const b = await makeBundle(st, ev);
     expect('lockedAt' in b.study).toBe(false);
     expect('localOnly' in (b.events[0] as object)).toBe(false);
-    expect(parseBundle(serializeBundle(b)).ok).toBe(true);
+    expect((await parseBundle(serializeBundle(b))).ok).toBe(true);
   });
 });
