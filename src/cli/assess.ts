@@ -5,12 +5,13 @@
 import { assess } from '../assess.ts';
 import { parseValues } from '../validate/parse-values.ts';
 import { type ParsedArgs, readInput, UsageError } from './io.ts';
-import { parseStudyFlags, rejectUnknownFlags } from './study-flags.ts';
+import { parseStudyFlags, STUDY_FLAGS } from './study-flags.ts';
 
 export const summary = 'interval, verdict and how many more for a list of values';
 
+export const flags = STUDY_FLAGS;
+
 export function run(args: ParsedArgs): string {
-  rejectUnknownFlags(args.flags);
   if (args.positional.length > 1)
     throw new UsageError(
       `assess takes one input (FILE or -), got ${args.positional.length}: ${args.positional.join(' ')}`,

@@ -3,13 +3,15 @@ import * as assess from './assess.ts';
 import * as bundle from './bundle.ts';
 import * as exportCommand from './export.ts';
 import { helpText } from './help.ts';
-import type { ParsedArgs } from './io.ts';
+import type { FlagSpec, ParsedArgs } from './io.ts';
 import { UsageError } from './io.ts';
 import * as merge from './merge.ts';
 import * as replay from './replay.ts';
 
 export interface Command {
   summary: string;
+  /** The flags this command takes; any other flag is refused as unknown (src/cli/io.ts). */
+  flags: FlagSpec;
   run(args: ParsedArgs): string | Promise<string>;
   /** Full text for `help COMMAND` (commands without it are covered by help.ts). */
   help?: string;
@@ -23,6 +25,7 @@ export const commands: Record<string, Command> = {
   merge,
   help: {
     summary: 'this help; `help COMMAND` for one command (e.g. `help assess`)',
+    flags: {},
     run: (args) => {
       const topic = args.positional[0];
       if (topic !== undefined && !(topic in commands))

@@ -1,7 +1,7 @@
 /**
  * `sure-enough help [COMMAND]`: the full flag documentation (src/cli/README.md plus this build's own flags).
  */
-import { METHODS_BY_KIND } from './study-flags.ts';
+import { METHODS_BY_KIND } from '../model/setup.ts';
 
 const STUDY_FLAGS_TEXT = `Study flags (assess, bundle, replay):
   --kind measurement|count|pass-fail   the data kind (required)
@@ -33,30 +33,34 @@ const STUDY_FLAGS_TEXT = `Study flags (assess, bundle, replay):
   --rule standard|strict|sprt|naive
                        stopping rule (default standard; sprt needs a limit target and --sprt-lower/-upper;
                        naive is for comparison only)
+                       pass-fail targets are proportions: limit:L with 0 < L < 1, margin:D with D < 1
   --min N              observations before any verdict other than "keep going" (default 10)
   --population N       finite population or lot size, sampled without replacement (never fewer than n)
   --plot-area A        plot area for counts; densities are reported per unit of this area
-  --max N              planned maximum number of observations (also the SPRT truncation)
+  --max N              planned maximum number of observations, not below --min (also the SPRT truncation)
   --nb-k K             counts: negative-binomial k for planning "how many more" (Var = m + m²/k)
   --taylor-a A --taylor-b B
-                       counts: Taylor's power law for planning (Var = A·m^B)
+                       counts: Taylor's power law for planning (Var = A·m^B; A > 0, 0 < B ≤ 5)
   --iwao-alpha A --iwao-beta B
-                       counts: Iwao's patchiness regression (used by the stop lines of the stopping rules)
+                       counts: Iwao's patchiness regression (used by the stop lines of the stopping rules;
+                       A > −1)
   --sprt-alpha A --sprt-beta B --sprt-lower P0 --sprt-upper P1
-                       Wald SPRT: error rates (default 0.05, 0.10) and the indifference zone around the limit
+                       Wald SPRT: error rates (default 0.05, 0.10; each strictly between 0 and 0.5) and the
+                       indifference zone around the limit: 0 < P0 < L < P1 (P1 < 1 for pass-fail)
 
 Field designs (see Input for the stratum and primary-unit columns):
   --strata "NAME:W,NAME:W"
-                       declared strata with weights (area share, hectares or number of units; rescaled to
-                       sum to 1), e.g. --strata "woodland:0.6,meadow:0.4". The estimate is the stratified mean
-                       (Cochran 1977 ch. 5) with a Student t interval on Satterthwaite's effective df; every
+                       at least two declared strata with weights (area share, hectares or number of units;
+                       rescaled to sum to 1), e.g. --strata "woodland:0.6,meadow:0.4". The estimate is the
+                       stratified mean (Cochran 1977 ch. 5) with a Student t interval on Satterthwaite's
+                       effective df; every
                        stratum needs two entries (or two primary units) first. details.whereNext names the
                        stratum where one more entry narrows the interval most per unit of effort (with
                        details.whereNextMessage) and details["stratum.NAME.n" / ".mean" / ".sd"] the progress.
                        Use ; between strata to write weights with a decimal comma.
   --cost "NAME:C,..."  effort of one entry per stratum (minutes, money; default 1), used by "where next"
-  --design composite   each value is one replicate composite (incremental sample): a one-sided upper bound
-                       by Student t (or Chebyshev with --method chebyshev) from the replicates (ITRC ISM-1);
+  --design composite   each value is one replicate composite (incremental sample; not with --strata): a
+                       one-sided upper bound by Student t (or Chebyshev with --method chebyshev) from the replicates (ITRC ISM-1);
                        a single composite gives no bound. The minimum is min(--min, 3) replicates.
   --non-detects kaplan-meier|half-limit
                        how <RL results are used (measurements; default kaplan-meier: the Kaplan–Meier mean and

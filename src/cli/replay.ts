@@ -9,7 +9,7 @@
 import type { AnalysisSetup } from '../model/types.ts';
 import { type PassFailMemo, replaySequence } from '../stop/replay-sequence.ts';
 import { type ParsedArgs, readInput, UsageError } from './io.ts';
-import { parseStudyFlags, rejectUnknownFlags } from './study-flags.ts';
+import { parseStudyFlags, STUDY_FLAGS } from './study-flags.ts';
 
 export const summary = 'where a stopping rule stops on each sequence (JSON lines {"values":[…]})';
 
@@ -43,8 +43,9 @@ function validate(values: unknown, lineNo: number, setup: AnalysisSetup): number
   return values as number[];
 }
 
+export const flags = STUDY_FLAGS;
+
 export function run(args: ParsedArgs): string {
-  rejectUnknownFlags(args.flags);
   if (args.positional.length > 1)
     throw new UsageError(
       `replay takes one input (FILE or -), got ${args.positional.length}: ${args.positional.join(' ')}`,
