@@ -5,7 +5,7 @@
  * Source: ITRC (2012, updated 2020) Incremental Sampling Methodology, ISM-1, §4.2.2.2 and §4.3.4.1:
  * one-sided UCL by Student t, x̄ + t₍1−α, r−1₎ · s/√r, or by Chebyshev, x̄ + √(1/α − 1) · s/√r, from
  * r ≥ 3 replicates (typically 3); a single ISM sample gives no estimate of the variance and therefore no
- * bound [secondary: shared field notes FIELD §1.5]. Chebyshev form as in USEPA (2002) OSWER 9285.6-10.
+ * bound [secondary]. Chebyshev form as in USEPA (2002) OSWER 9285.6-10.
  * Preconditions: replicate results (each composite's measured value, data units); 0 < level < 1.
  * Returns: `ok` with r, mean, SD (divisor r − 1), the t-UCL and the Chebyshev UCL at `level`; `no-bound`
  * with one composite (and zero), saying why.

@@ -10,7 +10,6 @@
  * total (Wright T (2012) The equivalence of Neyman optimum allocation for sampling and equal proportions
  * for apportioning the U.S. House of Representatives, Am Stat 66:217–224 [memory]), and where it settles,
  * W_h² S_h² / (n_h² c_h) ≈ constant, i.e. n_h ∝ W_h S_h / √c_h — Neyman's allocation with cost (Cochran §5.5).
- * The same rule appears in the shared field notes (FIELD §1.5) [secondary].
  * App choices [derived]: a stratum with fewer than two entries comes first (its spread is unknown; the one
  * with the fewest entries, then the largest weight); a stratum whose entries so far are all equal uses the
  * pooled within-stratum SD instead of 0 (two equal values do not show that it has no spread); if every
