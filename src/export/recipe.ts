@@ -12,7 +12,7 @@
  *
  * The values file is a CSV (RFC 4180 quoting, see rfc4180.ts) with a `value` column — a non-detect is
  * written `<RL` — and `stratum` / `cluster` columns when any counted entry carries one (the input rules of
- * the shared CLI notes, "Input"). The flags are written for a POSIX shell: any word other than letters,
+ * src/cli/README.md, "Input"). The flags are written for a POSIX shell: any word other than letters,
  * digits and `_ - . , : / = + @ %` is single-quoted (POSIX.1-2017, Shell Command Language §2.2.2).
  *
  * `recipeGaps` lists what the command line cannot express (e.g. a stratum's number of units, a name with

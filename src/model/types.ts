@@ -1,5 +1,6 @@
 /**
- * The shared vocabulary of the core (see DESIGN: study, data kind, target, stopping rule, verdict, more).
+ * The shared vocabulary of the core (src/model/README.md: study, data kind, target, stopping rule, verdict,
+ * more).
  * Every module of src/ and web/ speaks these types; change them only with care — the CLI JSON, the study
  * bundle and the stored setup all follow from them.
  */
