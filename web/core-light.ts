@@ -3,4 +3,5 @@
  * Everything else from src/ is reached through ./core-loader.ts.
  */
 export { formatStrata, parseStrata } from '../src/design/strata-spec.ts';
+export * from '../src/words/index.ts';
 export { SETUP_DEFAULTS, type SetupProblem, setupProblems } from '../src/model/setup.ts';

@@ -11,9 +11,9 @@
  * mean, primary units, composites, Kaplan–Meier) from the first entry at which the study's design applies,
  * the simple running estimate otherwise — so its last point is the reported interval.
  *
- * Everything typed by a user (study name, notes, units, labels, device names, reasons) is HTML-escaped
- * (`escapeHtml`): the five characters & < > " ' become character references (HTML Living Standard,
- * §13.1.4 "character references"), so no typed text can open an element or an attribute.
+ * Every figure, unit, level, target and verdict is worded by src/words, as on the phone's screens (pass/fail
+ * in percent of items); the page's HTML pieces (escaping, rows, style, chart) are in report-page.ts.
+ * Everything typed by a user (study name, notes, units, labels, device names, reasons) is HTML-escaped there.
  */
 import { assess, assessSummary } from '../assess.ts';
 import { type Bundle, eventLogHash } from '../bundle/bundle.ts';
@@ -21,12 +21,34 @@ import { collectorShares, countedEntries, logCounts, pointsOf } from '../bundle/
 import { likelyDuplicates } from '../bundle/merge.ts';
 import { assessDesign } from '../design/index.ts';
 import type { StudySetup } from '../model/records.ts';
-import type { Assessment, Target } from '../model/types.ts';
+import type { Assessment } from '../model/types.ts';
 import { RunningSummary } from '../stats/running-summary.ts';
+import {
+  CAUTIONS,
+  confidenceWords,
+  doneWords,
+  estimateWords,
+  intervalWords,
+  kindWords,
+  levelWords,
+  methodWords,
+  moreWords,
+  percent,
+  plain,
+  ruleExplained,
+  ruleWords,
+  sidedWords,
+  targetWords,
+  valueUnit,
+  withUnit,
+} from '../words/index.ts';
 import { COVERAGE_SOURCE } from './coverage.ts';
 import { recipeCommands, recipeGaps } from './recipe.ts';
+import { type ChartPoint, chartSvg, esc, REPORT_CSS, row } from './report-page.ts';
 
+export { CAUTIONS } from '../words/index.ts';
 export { assessFlags } from './recipe.ts';
+export { escapeHtml } from './report-page.ts';
 
 export interface ReportOptions {
   /**
@@ -36,70 +58,6 @@ export interface ReportOptions {
   coverage: string | null;
   /** When the report was made (ISO 8601); left out when absent so the page is reproducible. */
   generatedAt?: string;
-}
-
-/** The cautions shown at setup, on the report and in the README (DESIGN.md, "Cautions"). */
-export const CAUTIONS = [
-  'The tool gives statistical guidance only. The approved sampling plan, the site safety plan, the regulator’s decision rule, accredited laboratories and licensed professionals take precedence.',
-  'Never take one more sample where conditions are unsafe (traffic, confined spaces, water, weather, hazardous material, lone working).',
-  'Regulatory limits change: they are entered by the user with their source and date, never built in.',
-];
-
-export function escapeHtml(text: string): string {
-  return text
-    .replace(/&/g, '&amp;')
-    .replace(/</g, '&lt;')
-    .replace(/>/g, '&gt;')
-    .replace(/"/g, '&quot;')
-    .replace(/'/g, '&#39;');
-}
-
-const esc = (v: unknown): string => escapeHtml(v === undefined || v === null ? '' : String(v));
-
-/** A number for reading: up to 4 significant digits, no exponent for everyday magnitudes. */
-export function fmt(x: number | null | undefined): string {
-  if (x === null || x === undefined || !Number.isFinite(x)) return '—';
-  if (x === 0) return '0';
-  const a = Math.abs(x);
-  if (a >= 1e-4 && a < 1e9) return String(Number(x.toPrecision(4)));
-  return x.toExponential(3);
-}
-
-const pct = (x: number): string => `${Number((x * 100).toPrecision(4))} %`;
-
-function targetWords(t: Target | undefined, setup: StudySetup): string {
-  if (!t) return 'none (interval only)';
-  const unit = setup.kind === 'pass-fail' ? '' : setup.unit ? ` ${setup.unit}` : '';
-  switch (t.kind) {
-    case 'margin':
-      return `margin of error ± ${fmt(t.value)}${unit}`;
-    case 'relative':
-      return `relative margin ± ${pct(t.value)} of the estimate`;
-    case 'precision':
-      return `relative precision SE/mean ≤ ${fmt(t.value)}`;
-    case 'limit':
-      return `decide below or above the limit ${fmt(t.value)}${unit}${t.source ? ` (source: ${t.source}${t.date ? `, ${t.date}` : ''})` : t.date ? ` (${t.date})` : ''}`;
-  }
-}
-
-function ruleWords(rule: StudySetup['rule']): string {
-  switch (rule) {
-    case 'standard':
-      return 'the standard rule: after every entry the interval is checked against the target at a raised confidence level, calibrated by simulation so that looking after every entry does not lower the coverage below the stated level';
-    case 'strict':
-      return 'the strict rule: a plan that stays valid however often the interval is looked at';
-    case 'sprt':
-      return 'Wald’s sequential probability ratio test against the limit';
-    case 'naive':
-      return 'the naive rule (stop the first time the fixed-sample interval meets the target), which is known to under-cover';
-  }
-}
-
-function kindWords(setup: StudySetup): string {
-  if (setup.kind === 'count')
-    return `count per plot${setup.plotArea !== undefined ? ` (plot area ${setup.plotArea}${setup.plotAreaUnit ? ` ${setup.plotAreaUnit}` : ''})` : ''}`;
-  if (setup.kind === 'pass-fail') return 'pass/fail: 1 = the counted outcome, 0 = not';
-  return `measurement${setup.unit ? ` in ${setup.unit}` : ''}`;
 }
 
 /** Estimators of src/design, by their `method` name (the report says their coverage was not benchmarked). */
@@ -119,7 +77,7 @@ function strataWords(setup: StudySetup): string {
   return strata
     .map(
       (s) =>
-        `${s.name}: weight ${fmt(s.weight)} (${pct(s.weight / total)})${s.cost !== undefined ? `, effort per entry ${fmt(s.cost)}` : ''}${s.population !== undefined ? `, ${s.population} units` : ''}`,
+        `${s.name}: weight ${plain(s.weight)} (${percent(s.weight / total)})${s.cost !== undefined ? `, effort per entry ${plain(s.cost)}` : ''}${s.population !== undefined ? `, ${s.population} units` : ''}`,
     )
     .join('; ');
 }
@@ -141,7 +99,7 @@ export function designWords(bundle: Bundle): string {
   return 'simple random sample (entries independent)';
 }
 
-function estimateWords(a: Assessment, setup: StudySetup): string {
+function estimatorWords(a: Assessment, setup: StudySetup): string {
   const d = a.details;
   const num = (k: string) => (typeof d[k] === 'number' ? (d[k] as number) : null);
   switch (a.method) {
@@ -161,13 +119,6 @@ function estimateWords(a: Assessment, setup: StudySetup): string {
     default:
       return `the ${setup.kind === 'pass-fail' ? 'proportion of the counted outcome among' : 'mean of'} the ${a.n} counted entries${setup.kind === 'count' ? ' (per plot)' : ''}`;
   }
-}
-
-interface ChartPoint {
-  n: number;
-  estimate: number | null;
-  lower: number | null;
-  upper: number | null;
 }
 
 /**
@@ -199,88 +150,6 @@ export function runningInterval(bundle: Bundle): ChartPoint[] {
   return out;
 }
 
-function chartSvg(points: ChartPoint[], setup: StudySetup): string {
-  const W = 640;
-  const H = 260;
-  const L = 56;
-  const R = 12;
-  const T = 12;
-  const B = 36;
-  // a one-sided bound is drawn as a band from the estimate to the bound
-  const finite = points
-    .filter((p) => p.estimate !== null && (p.lower !== null || p.upper !== null))
-    .map((p) => ({
-      n: p.n,
-      estimate: p.estimate as number,
-      lower: p.lower ?? (p.estimate as number),
-      upper: p.upper ?? (p.estimate as number),
-    }));
-  if (finite.length === 0)
-    return '<p class="muted">No interval yet: too few counted entries to draw the running interval.</p>';
-  let lo = Math.min(...finite.map((p) => p.lower));
-  let hi = Math.max(...finite.map((p) => p.upper));
-  const limit = setup.target?.kind === 'limit' ? setup.target.value : null;
-  if (limit !== null) {
-    lo = Math.min(lo, limit);
-    hi = Math.max(hi, limit);
-  }
-  if (hi === lo) {
-    hi += 1;
-    lo -= 1;
-  }
-  const pad = (hi - lo) * 0.05;
-  lo -= pad;
-  hi += pad;
-  const nMax = Math.max(...points.map((p) => p.n), 2);
-  const x = (n: number) => L + ((n - 1) / (nMax - 1)) * (W - L - R);
-  const y = (v: number) => T + ((hi - v) / (hi - lo)) * (H - T - B);
-  const f = (v: number) => v.toFixed(1);
-  const band = `${finite.map((p) => `${f(x(p.n))},${f(y(p.upper))}`).join(' ')} ${[...finite]
-    .reverse()
-    .map((p) => `${f(x(p.n))},${f(y(p.lower))}`)
-    .join(' ')}`;
-  const line = finite.map((p) => `${f(x(p.n))},${f(y(p.estimate))}`).join(' ');
-  const ticks = [lo + pad, (lo + hi) / 2, hi - pad];
-  const parts = [
-    `<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 ${W} ${H}" width="100%" role="img" aria-label="Running estimate and interval against the number of entries">`,
-    `<rect x="${L}" y="${T}" width="${W - L - R}" height="${H - T - B}" fill="none" stroke="#999"/>`,
-    `<polygon points="${band}" fill="#9ec3e6" fill-opacity="0.6" stroke="none"/>`,
-    `<polyline points="${line}" fill="none" stroke="#17324d" stroke-width="2"/>`,
-  ];
-  if (limit !== null)
-    parts.push(
-      `<line x1="${L}" x2="${W - R}" y1="${f(y(limit))}" y2="${f(y(limit))}" stroke="#b00020" stroke-dasharray="6 4"/>`,
-      `<text x="${W - R - 4}" y="${f(y(limit) - 4)}" text-anchor="end" font-size="11" fill="#b00020">limit ${esc(fmt(limit))}</text>`,
-    );
-  for (const t of ticks)
-    parts.push(
-      `<text x="${L - 6}" y="${f(y(t) + 4)}" text-anchor="end" font-size="11">${esc(fmt(t))}</text>`,
-    );
-  parts.push(
-    `<text x="${L}" y="${H - 18}" font-size="11">1</text>`,
-    `<text x="${W - R}" y="${H - 18}" text-anchor="end" font-size="11">${nMax}</text>`,
-    `<text x="${(L + W - R) / 2}" y="${H - 4}" text-anchor="middle" font-size="12">counted entries (n)</text>`,
-    '</svg>',
-  );
-  return parts.join('\n');
-}
-
-function row(label: string, value: string): string {
-  return `<tr><th scope="row">${esc(label)}</th><td>${value}</td></tr>`;
-}
-
-const CSS = `
-  body { font: 11pt/1.45 system-ui, -apple-system, "Segoe UI", Roboto, sans-serif; color: #111; max-width: 46rem; margin: 1.5rem auto; padding: 0 1rem; }
-  h1 { font-size: 1.5rem; margin: 0 0 .25rem; } h2 { font-size: 1.1rem; margin: 1.4rem 0 .4rem; border-bottom: 1px solid #ccc; }
-  table { border-collapse: collapse; width: 100%; } th, td { text-align: left; padding: .2rem .5rem .2rem 0; vertical-align: top; }
-  th[scope=row] { font-weight: 600; width: 38%; } thead th { border-bottom: 1px solid #999; }
-  .verdict { font-size: 1.35rem; font-weight: 700; padding: .5rem .75rem; border: 2px solid #17324d; display: inline-block; }
-  .muted { color: #555; } code, .hash { font-family: ui-monospace, Menlo, Consolas, monospace; font-size: .85em; word-break: break-all; }
-  ul { padding-left: 1.2rem; }
-  @page { size: A4; margin: 15mm; }
-  @media print { body { margin: 0; max-width: none; font-size: 10pt; } h2 { break-after: avoid; } table, svg, .keep { break-inside: avoid; } a { color: inherit; text-decoration: none; } }
-`;
-
 /** The report page (HTML5 text). */
 export function reportHtml(bundle: Bundle, options: ReportOptions): string {
   const { study, events } = bundle;
@@ -299,35 +168,15 @@ export function reportHtml(bundle: Bundle, options: ReportOptions): string {
     });
   const first = entries[0]?.at;
   const last = entries[entries.length - 1]?.at;
-  const unit = setup.kind === 'measurement' && setup.unit ? ` ${setup.unit}` : '';
-  const sidedWords =
-    a.sided === 'two'
-      ? 'two-sided interval'
-      : a.sided === 'upper'
-        ? 'one-sided upper bound'
-        : 'one-sided lower bound';
-  const interval =
-    a.sided === 'upper' && a.upper !== null
-      ? `at most ${fmt(a.upper)}${unit}`
-      : a.sided === 'lower' && a.lower !== null
-        ? `at least ${fmt(a.lower)}${unit}`
-        : a.sided === 'two' && a.lower !== null && a.upper !== null
-          ? `${fmt(a.lower)} to ${fmt(a.upper)}${unit}`
-          : 'not available';
-  const more =
-    a.more !== null
-      ? `About ${a.more.atLeast ? 'at least ' : ''}${a.more.likely} more (likely ${a.more.low}–${a.more.high}).`
-      : '';
+  const more = moreWords(a);
+  const done = doneWords(a);
 
   const setupRows = [
     row('Data kind', esc(kindWords(setup))),
     setup.outcomeName ? row('Measured / counted', esc(setup.outcomeName)) : '',
     setup.taxon ? row('Taxon', `<i>${esc(setup.taxon)}</i>`) : '',
     row('Target', esc(targetWords(setup.target, setup))),
-    row(
-      'Confidence level',
-      esc(`${pct(setup.level)} (${setup.sided === 'two' ? 'two-sided' : `one-sided, ${setup.sided}`})`),
-    ),
+    row('Confidence level', esc(confidenceWords(setup.level, setup.sided))),
     row('Interval method', esc(setup.method ?? 'the data kind’s default')),
     row('Sampling design', esc(designWords(bundle))),
     setup.strata !== undefined && setup.strata.length > 0 ? row('Strata', esc(strataWords(setup))) : '',
@@ -341,11 +190,13 @@ export function reportHtml(bundle: Bundle, options: ReportOptions): string {
           ),
         )
       : '',
-    row('Stopping rule', esc(setup.rule)),
+    row('Stopping rule', esc(ruleWords(setup.rule))),
     row('Minimum before a verdict', esc(setup.min)),
     setup.population !== undefined ? row('Population / lot size', esc(setup.population)) : '',
     setup.max !== undefined ? row('Planned maximum', esc(setup.max)) : '',
-    setup.reportingLimit !== undefined ? row('Reporting limit', esc(`${setup.reportingLimit}${unit}`)) : '',
+    setup.reportingLimit !== undefined
+      ? row('Reporting limit', esc(withUnit(plain(setup.reportingLimit), valueUnit(setup))))
+      : '',
     setup.samplingProtocol ? row('Sampling protocol', esc(setup.samplingProtocol)) : '',
     row('Study created', esc(study.createdAt)),
     row('Setup version', esc(study.version)),
@@ -357,19 +208,19 @@ export function reportHtml(bundle: Bundle, options: ReportOptions): string {
   const shareRows = shares
     .map(
       (s) =>
-        `<tr><td>${esc(s.device)}</td><td>${s.counted}</td><td>${s.entries - s.counted}</td><td>${s.voids}</td><td>${esc(pct(s.share))}</td></tr>`,
+        `<tr><td>${esc(s.device)}</td><td>${s.counted}</td><td>${s.entries - s.counted}</td><td>${s.voids}</td><td>${esc(percent(s.share))}</td></tr>`,
     )
     .join('\n');
 
   const method = [
-    `The estimate is ${esc(estimateWords(a, setup))}.`,
-    `The interval is ${esc(a.methodLabel)}, reported as a ${sidedWords} at ${esc(pct(a.level))}${a.level !== setup.level ? ` (the study’s nominal level is ${esc(pct(setup.level))}; the stopping rule reports at its own level)` : ''}.`,
-    `Whether there is enough was decided with ${esc(ruleWords(setup.rule))}.`,
+    `The estimate is ${esc(estimatorWords(a, setup))}.`,
+    `The interval is ${esc(methodWords(a))}, reported as a ${sidedWords(a.sided)} at ${esc(levelWords(a.level))}${a.level !== setup.level ? ` (the study’s nominal level is ${esc(levelWords(setup.level))}; the stopping rule reports at its own level)` : ''}.`,
+    `Whether there is enough was decided with ${esc(ruleExplained(setup.rule))}.`,
     `Measured coverage of this rule: ${options.coverage === null ? 'not yet measured' : esc(options.coverage)}.`,
     options.coverage !== null &&
     setup.rule !== 'sprt' &&
     Math.abs(setup.level * 100 - COVERAGE_SOURCE.nominalPercent) > 1e-9
-      ? `(The benchmark ran at ${COVERAGE_SOURCE.nominalPercent} %; this study uses ${esc(pct(setup.level))}.)`
+      ? `(The benchmark ran at ${COVERAGE_SOURCE.nominalPercent} %; this study uses ${esc(levelWords(setup.level))}.)`
       : '',
     DESIGN_METHODS.has(a.method)
       ? 'That benchmark simulates simple random samples; the coverage of this design-based interval under the stopping rule has not been measured.'
@@ -395,7 +246,7 @@ export function reportHtml(bundle: Bundle, options: ReportOptions): string {
 <meta charset="utf-8">
 <meta name="viewport" content="width=device-width, initial-scale=1">
 <title>${esc(study.name)} — report</title>
-<style>${CSS}</style>
+<style>${REPORT_CSS}</style>
 </head>
 <body>
 <header>
@@ -407,9 +258,10 @@ export function reportHtml(bundle: Bundle, options: ReportOptions): string {
 <h2>Result</h2>
 <p class="verdict">${esc(a.verdict.status)}</p>
 <p>${esc(a.verdict.message)}</p>
+${done ? `<p>${esc(done)}</p>` : ''}
 <table>
-${row('Estimate', esc(`${fmt(a.estimate)}${unit}${setup.kind === 'count' ? ' per plot' : ''}`))}
-${row(`Interval (${pct(a.level)}, ${sidedWords})`, esc(interval))}
+${row('Estimate', esc(estimateWords(a, setup)))}
+${row(`Interval (${confidenceWords(a.level, a.sided)})`, esc(intervalWords(a, setup)))}
 ${more ? row('More needed', esc(more)) : ''}
 ${row('Counted entries', esc(a.n))}
 </table>

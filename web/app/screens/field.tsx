@@ -1,6 +1,7 @@
 /** The field screen: verdict on top, the chart, the backup/position line, the entry pad at the bottom. */
 import { useEffect, useMemo, useState } from 'preact/hooks';
 import type { Assessment, ObservationRecord } from '../../core.ts';
+import { entryWords, figureScale, outcomeWords, valueUnit } from '../../core-light.ts';
 import { loadedCore } from '../../core-loader.ts';
 import { DesignBar, useDesignEntry } from '../../design/field-design.tsx';
 import { settings, updateSettings } from '../../state/app-state.ts';
@@ -14,8 +15,6 @@ import { BackupLine, DemoLabel, StudyTabs, TopBar } from '../components/chrome.t
 import { CountPad, MeasurementPad, PassFailPad } from '../components/pads.tsx';
 import { VerdictPanel } from '../components/verdict.tsx';
 import { VoidDialog } from '../components/void-dialog.tsx';
-import { describeEntry } from '../describe.ts';
-import { outcomeOf, unitOf } from '../format.ts';
 import { href } from '../router.ts';
 import { StudyGate } from './gate.tsx';
 
@@ -90,7 +89,7 @@ function Field({ view }: { view: StudyView }) {
           series={session.series}
           current={a}
           target={study.setup.target}
-          scale={kind === 'pass-fail' ? 100 : 1}
+          scale={figureScale(study.setup)}
           label={`Chart of ${study.name}`}
         />
         <DesignBar
@@ -117,21 +116,21 @@ function Field({ view }: { view: StudyView }) {
           disabled={padOff}
           onSave={save}
           undo={undoButton}
-          unit={unitOf(study)}
+          unit={valueUnit(study.setup)}
           reportingLimit={study.setup.reportingLimit}
         />
       )}
       {kind === 'count' && <CountPad disabled={padOff} onSave={save} undo={undoButton} />}
       {kind === 'pass-fail' && (
-        <PassFailPad disabled={padOff} onSave={save} undo={undoButton} outcome={outcomeOf(study)} />
+        <PassFailPad disabled={padOff} onSave={save} undo={undoButton} outcome={outcomeWords(study.setup)} />
       )}
       {undo && (
         <VoidDialog
           mode="undo"
           target={undo}
           kind={kind}
-          outcome={outcomeOf(study)}
-          describe={(r) => describeEntry(r, study)}
+          outcome={outcomeWords(study.setup)}
+          describe={(r) => entryWords(r, study.setup)}
           onCancel={() => setUndo(null)}
           onVoid={async (reason) => {
             const { before } = await view.undoLast(reason);

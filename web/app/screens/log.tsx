@@ -1,11 +1,11 @@
 /** The log: every event in order. Voided entries are struck through with the void's reason. */
 import { useState } from 'preact/hooks';
 import type { ObservationRecord } from '../../core.ts';
+import { entryWords, outcomeWords } from '../../core-light.ts';
 import { type StudyView, useStudy } from '../../state/use-study.ts';
 import { DemoLabel, StudyTabs, TopBar } from '../components/chrome.tsx';
 import { VoidDialog } from '../components/void-dialog.tsx';
-import { describeEntry } from '../describe.ts';
-import { dateTimeText, outcomeOf, timeText } from '../format.ts';
+import { dateTimeText, timeText } from '../format.ts';
 import { href } from '../router.ts';
 import { afterWrite } from './field.tsx';
 import { StudyGate } from './gate.tsx';
@@ -58,7 +58,7 @@ function Log({ view }: { view: StudyView }) {
             <li key={r.id} class={`log-item ${voidRec ? 'voided' : ''}`} data-testid="log-entry">
               <span class="seq">#{r.seq}</span>
               <span class="what">
-                {voidRec ? <del>{describeEntry(r, study)}</del> : describeEntry(r, study)}
+                {voidRec ? <del>{entryWords(r, study.setup)}</del> : entryWords(r, study.setup)}
                 {voidRec && <span class="reason"> voided: {voidRec.reason}</span>}
               </span>
               <span class="meta">
@@ -88,8 +88,8 @@ function Log({ view }: { view: StudyView }) {
           mode={edit.mode}
           target={edit.target}
           kind={study.setup.kind}
-          outcome={outcomeOf(study)}
-          describe={(r) => describeEntry(r, study)}
+          outcome={outcomeWords(study.setup)}
+          describe={(r) => entryWords(r, study.setup)}
           onCancel={() => setEdit(null)}
           onVoid={async (reason) => {
             const { before } = await view.voidOne(edit.target.id, reason);

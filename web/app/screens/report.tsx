@@ -1,9 +1,20 @@
 /** The report: summary, the method in plain words, the chart, warnings, cautions, and the export slot. */
+import {
+  CAUTIONS,
+  confidenceWords,
+  estimateWords,
+  figureScale,
+  intervalWords,
+  kindWords,
+  levelWords,
+  methodWords,
+  ruleWords,
+  targetWords,
+} from '../../core-light.ts';
 import { type StudyView, useStudy } from '../../state/use-study.ts';
-import { CAUTIONS } from '../cautions.ts';
 import { Chart } from '../components/chart.tsx';
 import { BackupLine, DemoLabel, StudyTabs, TopBar } from '../components/chrome.tsx';
-import { dateTimeText, kindText, levelText, ruleText, shownNumbers, targetText } from '../format.ts';
+import { dateTimeText } from '../format.ts';
 import { href } from '../router.ts';
 import { reportSlots } from '../slots.ts';
 import { StudyGate } from './gate.tsx';
@@ -22,7 +33,6 @@ function Report({ view }: { view: StudyView }) {
   const study = session.study;
   const a = session.assessment;
   const setup = study.setup;
-  const shown = shownNumbers(a, study);
   const t = setup.target;
   const what =
     setup.kind === 'pass-fail'
@@ -45,19 +55,17 @@ function Report({ view }: { view: StudyView }) {
             {a.n} ({session.voidOf.size} voided, kept in the log)
           </dd>
           <dt>Estimate</dt>
-          <dd>
-            {shown.estimate} {shown.unit}
-          </dd>
+          <dd data-testid="report-estimate">{estimateWords(a, setup)}</dd>
           <dt>Interval</dt>
-          <dd>{shown.interval ?? 'none yet'}</dd>
+          <dd data-testid="report-interval">{intervalWords(a, setup)}</dd>
           <dt>Data</dt>
-          <dd>{kindText(study)}</dd>
+          <dd>{kindWords(setup)}</dd>
           <dt>Target</dt>
-          <dd>{targetText(t, study)}</dd>
+          <dd data-testid="report-target">{targetWords(t, setup)}</dd>
           <dt>Confidence</dt>
-          <dd>{levelText(setup.level)}</dd>
+          <dd data-testid="report-confidence">{confidenceWords(setup.level, setup.sided)}</dd>
           <dt>Stopping rule</dt>
-          <dd>{ruleText(setup.rule)}</dd>
+          <dd>{ruleWords(setup.rule)}</dd>
           {setup.population !== undefined && (
             <>
               <dt>Lot / population</dt>
@@ -78,11 +86,11 @@ function Report({ view }: { view: StudyView }) {
       <section aria-labelledby="r-method">
         <h2 id="r-method">Method</h2>
         <p class="method-statement">
-          After every entry the app recomputed {what} and its interval by {a.methodLabel}, from the {a.n}{' '}
-          entries that count (voided entries are left out). The target was {targetText(t, study)}, at{' '}
-          {levelText(setup.level)} confidence, with the {ruleText(setup.rule)} stopping rule; no verdict other
-          than “keep going” is given before {setup.min} entries or while the data have no spread. Current
-          verdict: {a.verdict.status} — {a.verdict.message}
+          After every entry the app recomputed {what} and its interval by {methodWords(a)}, from the {a.n}{' '}
+          entries that count (voided entries are left out). The target was {targetWords(t, setup)}, at{' '}
+          {levelWords(setup.level)} confidence, with the {ruleWords(setup.rule)} stopping rule; no verdict
+          other than “keep going” is given before {setup.min} entries or while the data have no spread.
+          Current verdict: {a.verdict.status} — {a.verdict.message}
         </p>
         {a.warnings.length > 0 && (
           <ul class="warnings">
@@ -98,7 +106,7 @@ function Report({ view }: { view: StudyView }) {
           series={session.series}
           current={a}
           target={t}
-          scale={setup.kind === 'pass-fail' ? 100 : 1}
+          scale={figureScale(setup)}
           label={`Chart of ${study.name}`}
         />
       </section>

@@ -1,6 +1,7 @@
 /** The studies list: verdict and n per study, open, duplicate the setup, archive (never delete). */
 import { useEffect, useState } from 'preact/hooks';
 import type { Assessment } from '../../core.ts';
+import { kindWords, targetWords } from '../../core-light.ts';
 import { loadCore } from '../../core-loader.ts';
 import { device, persistState, settings, updateSettings } from '../../state/app-state.ts';
 import { StudySession } from '../../state/session.ts';
@@ -12,7 +13,6 @@ import type { StoredStudy } from '../../storage/schema.ts';
 import { listStudies, setArchived } from '../../storage/studies.ts';
 import { TopBar } from '../components/chrome.tsx';
 import { verdictClass } from '../components/verdict.tsx';
-import { kindText, targetText } from '../format.ts';
 import { href } from '../router.ts';
 import { studiesSlots } from '../slots.ts';
 
@@ -123,7 +123,7 @@ export function StudiesScreen({ archived }: { archived: boolean }) {
             <a class="card-main" href={href.field(r.study.id)}>
               <span class="card-name">{r.study.name}</span>
               <span class="card-kind">
-                {kindText(r.study)} · {targetText(r.study.setup.target, r.study)}
+                {kindWords(r.study.setup)} · {targetWords(r.study.setup.target, r.study.setup)}
               </span>
               {r.a ? (
                 <span class={`chip-verdict ${verdictClass(r.a)}`}>

@@ -1,0 +1,19 @@
+/** The one module of words: see README.md. */
+export { CAUTIONS } from './cautions.ts';
+export { entryWords } from './entry.ts';
+export { estimateWords, intervalWords, methodWords, type Shown, shownNumbers } from './figures.ts';
+export { decimalsFor, fixed, levelWords, percent, plain, readable, withSeparator } from './numbers.ts';
+export {
+  confidenceWords,
+  figureScale,
+  figureUnit,
+  kindWords,
+  outcomeWords,
+  ruleExplained,
+  ruleWords,
+  sidedWords,
+  targetWords,
+  valueUnit,
+  withUnit,
+} from './study.ts';
+export { doneWords, moreWords } from './verdict.ts';
