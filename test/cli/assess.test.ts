@@ -1,5 +1,5 @@
-// `sure-enough assess` end to end: the built command (npm run build:cli), its JSON fields as in the shared
-// CLI.md, and bad input → message on stderr naming the line or flag, exit code 2, nothing on stdout.
+// `sure-enough assess` end to end: the built command (npm run build:cli), its JSON fields as in
+// src/cli/README.md, and bad input → message on stderr naming the line or flag, exit code 2, nothing on stdout.
 import { execFileSync, spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -19,7 +19,7 @@ beforeAll(() => {
 }, 120_000);
 
 describe('assess output', () => {
-  it('prints one JSON object with the CLI.md fields', () => {
+  it('prints one JSON object with the fields of src/cli/README.md', () => {
     const values = '9.2\n9.3\n9,1\n9.5\n9.0\n9.4\n9.2\n9.3\n9.6\n9.1\n9.25\n9.35\n';
     const r = run(['assess', '--kind', 'measurement', '--target', 'margin:0.05', '--rule', 'naive'], values);
     expect(r.code).toBe(0);
@@ -59,7 +59,7 @@ describe('assess output', () => {
     expect(r.code).toBe(0);
     const out = JSON.parse(r.stdout);
     expect(out.method).toBe('hypergeometric');
-    expect(out.upper).toBeCloseTo(27 / 500, 12); // METHODS §2.2: N = 500, n = 50, x = 0 → D_U = 27
+    expect(out.upper).toBeCloseTo(27 / 500, 12); // exact hypergeometric bound: N = 500, n = 50, x = 0 → D_U = 27 [derived]
     expect(out.more).toBeNull();
   });
   it('help documents every study flag', () => {

@@ -1,4 +1,4 @@
-// `sure-enough replay` end to end (shared CLI.md): JSON lines in, one JSON line out per sequence, and bad
+// `sure-enough replay` end to end (src/cli/README.md, "Output"): JSON lines in, one JSON line out per sequence, and bad
 // input → a message on stderr naming the line, exit code 2, nothing on stdout.
 import { execFileSync, spawnSync } from 'node:child_process';
 import { join } from 'node:path';

@@ -1,7 +1,7 @@
 /**
  * Property-based fuzzing of the values importer (src/validate/parse-values.ts), fast-check 4.10.2.
  *
- * Claims checked (the importer's own documented rules, shared CLI.md "Input"):
+ * Claims checked (the importer's own documented rules, src/cli/README.md "Input"):
  * - never throws on any text, whatever the data kind;
  * - a refusal lists at least one message, each naming its line (`line N: …`, N a line of the input) or
  *   saying that the input holds no values; at most 20 messages are listed;

@@ -5,7 +5,7 @@
 // catch (Wald 1947, Sequential Analysis, §3.2: L(θ₀) = 1 − α, L(θ₁) = β for the approximate boundaries)
 // [read/secondary]; the ASN and truncation for pass/fail 2 % – 8 %, α 0.05, β 0.10 are those of
 // test/bench/coverage.md (58.3 / 45.0, truncated at 279) [derived]. For strict: Stein's large-n* cost
-// ratio (t₀.₉₇₅,₉ / z₀.₉₇₅)² = 1.3321 at m = 10 (METHODS §4.4) [derived]. The field screen lists ruleWarnings.
+// ratio (t₀.₉₇₅,₉ / z₀.₉₇₅)² = 1.3321 at m = 10 (Stein 1945) [derived]. The field screen lists ruleWarnings.
 import 'fake-indexeddb/auto';
 import { cleanup, fireEvent, render, screen, waitFor } from '@testing-library/preact';
 import { IDBFactory } from 'fake-indexeddb';

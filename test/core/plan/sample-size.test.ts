@@ -1,5 +1,5 @@
-// Planning formulas against the shared METHODS §3 worked figures (evidence beside each) and scipy
-// (stats-plan.json, `python3 test/fixtures/stats-fixtures.py`).
+// Planning formulas against worked figures from the published formulas (source and evidence beside each)
+// and scipy (stats-plan.json, `python3 test/fixtures/stats-fixtures.py`).
 import { describe, expect, it } from 'vitest';
 import { sigmaQuantile } from '../../../src/plan/chi-square-sigma-limits.ts';
 import { countSampleSize } from '../../../src/plan/count-sample-size.ts';
@@ -43,7 +43,7 @@ describe('Kupper & Hafner (1989) assurance', () => {
       18, 22, 24, 26,
     ]);
   });
-  it('d/σ = 0.25: γ = 0.8 → 73, γ = 0.9 → 77, γ = 0.95 → 81 (METHODS §3.6) [derived]', () => {
+  it('d/σ = 0.25: γ = 0.8 → 73, γ = 0.9 → 77, γ = 0.95 → 81 (Kupper & Hafner 1989) [derived]', () => {
     expect([0.8, 0.9, 0.95].map((g) => kupperHafnerSampleSize(1, 0.25, 0.975, g))).toEqual([73, 77, 81]);
   });
   it.each(fx.cases.kupperHafner)('σ=$sigma d=$d γ=$gamma vs scipy search [derived]', (c) => {
@@ -51,11 +51,11 @@ describe('Kupper & Hafner (1989) assurance', () => {
   });
 });
 
-describe('likely range from the chi-square distribution of σ (METHODS §3.7)', () => {
+describe('likely range from the chi-square distribution of σ (src/plan/README.md)', () => {
   it.each(fx.cases.sigmaQuantile)('s=$s n=$n q=$q vs scipy [derived]', (c) => {
     expect(sigmaQuantile(c.s, c.n, c.q)).toBeCloseTo(c.sigma, 8);
   });
-  it('n = 8, s = 2, d = 1: point 17.8, range 11.4–40.4, assured 22 (METHODS §3.7 example) [derived]', () => {
+  it('n = 8, s = 2, d = 1: point 17.8, range 11.4–40.4, assured 22 (Cochran 1977 §4.4; Kupper & Hafner 1989) [derived]', () => {
     const r = projectMeasurement({ n: 8, s: 2, d: 1, p: 0.975 });
     expect(r.likely).toBeCloseTo(17.8, 1);
     expect(r.low).toBeCloseTo(11.4, 1);
@@ -65,12 +65,12 @@ describe('likely range from the chi-square distribution of σ (METHODS §3.7)', 
 });
 
 describe('counts (Krebs 1999 ch. 7; Elliott 1977; Karandinos 1976)', () => {
-  it('NB m = 2, k = 0.5: D = 0.25 → 40; r = 0.25 at 95 % → 153.7 (METHODS §3.4) [derived]', () => {
+  it('NB m = 2, k = 0.5: D = 0.25 → 40; r = 0.25 at 95 % → 153.7 (Krebs 1999 ch. 7) [derived]', () => {
     const nb = { kind: 'negative-binomial', k: 0.5 } as const;
     expect(countSampleSize({ m: 2, variance: nb, target: 'precision', value: 0.25 })).toBeCloseTo(40, 10);
     expect(countSampleSize({ m: 2, variance: nb, target: 'relative', value: 0.25 })).toBeCloseTo(153.66, 1);
   });
-  it('Taylor a = 2, b = 1.5, m = 2, D = 0.25 → 22.6 (METHODS §3.4) [derived]', () => {
+  it('Taylor a = 2, b = 1.5, m = 2, D = 0.25 → 22.6 (Karandinos 1976) [derived]', () => {
     const n = countSampleSize({
       m: 2,
       variance: { kind: 'taylor', a: 2, b: 1.5 },
@@ -103,12 +103,12 @@ describe('proportions (Cochran 1977 eq. 4.2, 4.3)', () => {
       expect(Math.abs(g - km[i]!)).toBeLessThanOrEqual(1);
     });
   });
-  it('zero acceptance: p_max = 0.02 at 95 % → 149 items (METHODS §3.3) [derived]', () => {
+  it('zero acceptance: p_max = 0.02 at 95 % → 149 items (Hanley & Lippman-Hand 1983) [derived]', () => {
     expect(Math.ceil(zeroAcceptanceSampleSize(0.02, 0.05))).toBe(149);
   });
 });
 
-describe('log-scale relative target (METHODS §3.5)', () => {
+describe('log-scale relative target (Cox standard error, Zhou & Gao 1997)', () => {
   it('s_y = 1, r = 0.25 → 118.5 [derived]', () => {
     expect(logScaleRelativeSampleSize(1, 0.25, 0.975)).toBeCloseTo(118.5, 1);
   });

@@ -52,7 +52,7 @@ describe('zero counted: exact one-sided bound 1 − α^{1/n}', () => {
     expect(Math.abs(clopperPearsonInterval(0, 20, 0.95, 'upper').upper - 0.1391)).toBeLessThan(5e-5);
     expect(Math.abs(clopperPearsonInterval(0, 100, 0.95, 'upper').upper - 0.0295)).toBeLessThan(5e-5);
   });
-  it('differs from the two-sided 95 % Clopper–Pearson upper limit 0.1684 (METHODS §8 item 7) [derived]', () => {
+  it('differs from the two-sided 95 % Clopper–Pearson upper limit 0.1684, the one-sided 97.5 % bound (Clopper & Pearson 1934) [derived]', () => {
     expect(Math.abs(clopperPearsonInterval(0, 20, 0.95, 'two').upper - 0.1684)).toBeLessThan(5e-5);
   });
 });
@@ -62,7 +62,7 @@ describe('all five methods vs scipy on a grid [derived]', () => {
   it.each(bin.cases as BinCase[])('x=$x n=$n level=$level', (c) => {
     for (const name of Object.keys(FNS) as Name[]) {
       const r = FNS[name](c.x, c.n, c.level, 'two');
-      // beta.inv ≤ 7.6e-8 relative (METHODS §6)
+      // beta.inv ≤ 7.6e-8 relative (src/stats/README.md, "jstat's accuracy")
       expect(Math.abs(r.lower - c[name][0])).toBeLessThan(2e-7);
       expect(Math.abs(r.upper - c[name][1])).toBeLessThan(2e-7);
     }
@@ -70,7 +70,7 @@ describe('all five methods vs scipy on a grid [derived]', () => {
 });
 
 describe('hypergeometric bounds for a finite lot', () => {
-  it('N = 500, n = 50, x = 0 → D_U = 27 (METHODS §2.2) [derived]', () => {
+  it('N = 500, n = 50, x = 0 → D_U = 27 (largest D with P(X ≤ 0 | N, D, n) ≥ α) [derived]', () => {
     expect(hypergeometricBounds(0, 50, 500, 0.95, 'upper').upperCount).toBe(27);
   });
   it.each(hyp.cases)('N=$lot n=$n x=$x $sided vs scipy hypergeom exhaustive search [derived]', (c) => {

@@ -9,7 +9,7 @@ import { steinTwoStage } from '../../../src/stop/stein-two-stage.ts';
 import { strictCost } from '../../../src/stop/strict-cost.ts';
 import { createRng } from '../../sim/xoshiro128.ts';
 
-describe("Stein's two-stage size N = max(m, ⌊(t₍1−α/2, m−1₎ s_m/d)²⌋ + 1) (Stein 1945; METHODS §4.4)", () => {
+describe("Stein's two-stage size N = max(m, ⌊(t₍1−α/2, m−1₎ s_m/d)²⌋ + 1) (Stein 1945)", () => {
   it('worked example m = 10, s = 2, d = 1, 95 %: t = 2.262157, (t·s/d)² = 20.469 → N = 21 [derived]', () => {
     // python3: from scipy.stats import t; (t.ppf(.975, 9)*2/1)**2 → 20.469420116796897
     const r = steinTwoStage({ m: 10, pilotSd: 2, d: 1, level: 0.95, sided: 'two' });

@@ -1,4 +1,4 @@
-// Input parsing rules of the shared CLI.md ("Input") — each bad input names its line.
+// Input parsing rules of src/cli/README.md ("Input") — each bad input names its line.
 import { describe, expect, it } from 'vitest';
 import { parseValues } from '../../../src/validate/parse-values.ts';
 
