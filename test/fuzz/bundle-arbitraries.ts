@@ -1,10 +1,15 @@
 /**
  * Generators for fuzzing the study-bundle importer (not a test file): well-formed bundles following
  * src/bundle/SCHEMA.md, and faults planted in them, each with the path a message must name.
+ * Generators are synchronous, so a generated bundle's checksum is computed here with Node's own SHA-256
+ * (node:crypto, OpenSSL) over the canonical JSON the schema names — an implementation independent of the
+ * app's (Web Crypto), which the importer then checks it against.
  */
+import { createHash } from 'node:crypto';
 import fc from 'fast-check';
 import { expect } from 'vitest';
-import { type Bundle, KNOWN_KEYS, makeBundle } from '../../src/bundle/bundle.ts';
+import { BUNDLE_FORMAT, BUNDLE_VERSION, type Bundle, KNOWN_KEYS } from '../../src/bundle/bundle.ts';
+import { canonicalJson } from '../../src/bundle/canonical.ts';
 import type { ObservationRecord, StudyRecord, StudySetup } from '../../src/model/records.ts';
 
 // ---- well-formed bundles -------------------------------------------------------------------------
@@ -24,6 +29,18 @@ export const uuidArb = fc
       `${hex(a, 8)}-${hex(b, 4)}-4${hex(c, 3)}-${hex(0x8000 | d, 4)}-${hex(e, 8)}${hex(f, 4)}`,
   );
 const text = fc.string({ minLength: 1, maxLength: 30 }).filter((s) => s.trim() !== '');
+
+/** A bundle of already clean, seq-ordered records, checksummed with node:crypto (see the module note). */
+export function sealedBundle(study: StudyRecord, events: ObservationRecord[]): Bundle {
+  const value = createHash('sha256').update(canonicalJson({ study, events }), 'utf8').digest('hex');
+  return {
+    format: BUNDLE_FORMAT,
+    version: BUNDLE_VERSION,
+    study,
+    events,
+    checksum: { algorithm: 'SHA-256', value },
+  };
+}
 
 const kindArb = fc.constantFrom<StudySetup['kind']>('measurement', 'count', 'pass-fail');
 
@@ -108,7 +125,7 @@ export const goodBundle: fc.Arbitrary<Bundle> = kindArb.chain((kind) =>
           voids: events[0]!.id,
           reason: 'keyed twice',
         });
-      return makeBundle(study, events);
+      return sealedBundle(study, events);
     }),
 );
 

@@ -21,10 +21,10 @@ import { parseBundle } from '../../src/bundle/validate.ts';
 import { expectClearProblems, faultArb, goodBundle } from './bundle-arbitraries.ts';
 
 describe('study-bundle importer under fuzzing (fast-check)', () => {
-  it('accepts every generated well-formed bundle and reads it back exactly', () => {
-    fc.assert(
-      fc.property(goodBundle, (b) => {
-        const r = parseBundle(JSON.stringify(b, null, 2));
+  it('accepts every generated well-formed bundle and reads it back exactly', async () => {
+    await fc.assert(
+      fc.asyncProperty(goodBundle, async (b) => {
+        const r = await parseBundle(JSON.stringify(b, null, 2));
         if (!r.ok) throw new Error(r.problems.join('\n'));
         expect(r.bundle).toEqual(b);
       }),
@@ -32,15 +32,15 @@ describe('study-bundle importer under fuzzing (fast-check)', () => {
     );
   });
 
-  it('refuses every planted fault with where: what messages naming the place (1,200 generated inputs)', () => {
+  it('refuses every planted fault with where: what messages naming the place (1,200 generated inputs)', async () => {
     const seen = new Map<string, number>();
-    fc.assert(
-      fc.property(faultArb, (f) => {
+    await fc.assert(
+      fc.asyncProperty(faultArb, async (f) => {
         const kind = f.label.split(' ')[0]!;
         seen.set(kind, (seen.get(kind) ?? 0) + 1);
-        let r: ReturnType<typeof parseBundle>;
+        let r: Awaited<ReturnType<typeof parseBundle>>;
         try {
-          r = parseBundle(f.file);
+          r = await parseBundle(f.file);
         } catch (err) {
           throw new Error(`${f.label}: threw ${String(err)}`);
         }
@@ -63,15 +63,15 @@ describe('study-bundle importer under fuzzing (fast-check)', () => {
     expect(Object.hasOwn(Object.prototype, 'polluted')).toBe(false);
   });
 
-  it('one character inserted, deleted or replaced: refused with messages, or exactly the same bundle', () => {
-    fc.assert(
-      fc.property(
+  it('one character inserted, deleted or replaced: refused with messages, or exactly the same bundle', async () => {
+    await fc.assert(
+      fc.asyncProperty(
         goodBundle,
         fc.nat(),
         fc.constantFrom('insert', 'delete', 'replace'),
         fc.string({ minLength: 1, maxLength: 1, unit: 'binary' }),
         fc.boolean(),
-        (b, k, op, ch, pretty) => {
+        async (b, k, op, ch, pretty) => {
           const full = pretty ? JSON.stringify(b, null, 2) : JSON.stringify(b);
           const i = k % full.length;
           const damaged =
@@ -80,7 +80,7 @@ describe('study-bundle importer under fuzzing (fast-check)', () => {
               : op === 'delete'
                 ? full.slice(0, i) + full.slice(i + 1)
                 : full.slice(0, i) + ch + full.slice(i + 1);
-          const r = parseBundle(damaged);
+          const r = await parseBundle(damaged);
           if (r.ok) expect(r.bundle).toEqual(b);
           else expectClearProblems(r.problems);
         },
@@ -89,9 +89,9 @@ describe('study-bundle importer under fuzzing (fast-check)', () => {
     );
   });
 
-  it('a __proto__ member in the file is refused by name and pollutes nothing', () => {
-    fc.assert(
-      fc.property(goodBundle, fc.constantFrom('', 'study', 'setup', 'event'), (b, where) => {
+  it('a __proto__ member in the file is refused by name and pollutes nothing', async () => {
+    await fc.assert(
+      fc.asyncProperty(goodBundle, fc.constantFrom('', 'study', 'setup', 'event'), async (b, where) => {
         const full = JSON.stringify(b);
         const evil = '"__proto__":{"polluted":1,"kind":"count"},';
         const file =
@@ -102,7 +102,7 @@ describe('study-bundle importer under fuzzing (fast-check)', () => {
               : where === 'setup'
                 ? full.replace('"setup":{', `"setup":{${evil}`)
                 : full.replace('"events":[{', `"events":[{${evil}`);
-        const r = parseBundle(file);
+        const r = await parseBundle(file);
         expect(r.ok).toBe(false);
         if (r.ok) return;
         expect(r.problems.some((p) => p.includes('__proto__: unknown field'))).toBe(true);
