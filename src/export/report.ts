@@ -17,8 +17,7 @@
  */
 import { assess, assessSummary } from '../assess.ts';
 import { type Bundle, eventLogHash } from '../bundle/bundle.ts';
-import { collectorShares, countedEntries, logCounts, pointsOf } from '../bundle/events.ts';
-import { likelyDuplicates } from '../bundle/merge.ts';
+import { collectorShares, countedEntries, likelyDuplicates, logCounts, pointsOf } from '../bundle/events.ts';
 import { assessDesign } from '../design/index.ts';
 import type { StudySetup } from '../model/records.ts';
 import type { Assessment } from '../model/types.ts';
@@ -150,9 +149,10 @@ export function runningInterval(bundle: Bundle): ChartPoint[] {
   return out;
 }
 
-/** The report page (HTML5 text). */
-export function reportHtml(bundle: Bundle, options: ReportOptions): string {
+/** The report page (HTML5 text); asynchronous because of the event-log hash (the platform's SHA-256). */
+export async function reportHtml(bundle: Bundle, options: ReportOptions): Promise<string> {
   const { study, events } = bundle;
+  const logHash = await eventLogHash(events);
   const setup = study.setup;
   const a: Assessment = assess(pointsOf(events), setup);
   const counts = logCounts(events);
@@ -321,7 +321,7 @@ ${a.warnings.length ? `<section class="keep"><h2>Warnings</h2><ul>${a.warnings.m
 <section class="keep">
 <h2>Check and reproduce</h2>
 <table>
-${row('SHA-256 of the event log', `<span class="hash">${esc(eventLogHash(events))}</span>`)}
+${row('SHA-256 of the event log', `<span class="hash">${esc(logHash)}</span>`)}
 ${row('Bundle checksum (setup and log)', `<span class="hash">${esc(bundle.checksum.value)}</span>`)}
 </table>
 <p>Anyone holding the study bundle can check these (the recipe is in the bundle schema) and reproduce the figures: save the bundle as <code>study.bundle.json</code> and run</p>
