@@ -22,8 +22,14 @@ type Msg = { kind: 'error' | 'saved'; text: string } | null;
 function useNote() {
   const [note, setNote] = useState('');
   const [open, setOpen] = useState(false);
-  return { note, setNote, open, setOpen };
+  const clear = () => {
+    setNote('');
+    setOpen(false);
+  };
+  return { note, setNote, open, setOpen, clear };
 }
+
+type Note = ReturnType<typeof useNote>;
 
 function NoteBox(props: { note: string; setNote(v: string): void; id: string }) {
   const over = props.note.trim().length > NOTE_MAX;
@@ -56,20 +62,20 @@ function PadMessage({ msg }: { msg: Msg }) {
   );
 }
 
-/** Shared save flow: validate the note, save, keep everything on failure, clear on success. */
-function useSaver(props: PadProps, padKey: string, dirty: boolean) {
+/** Shared save flow: validate the note, save, keep everything on failure, clear (value and note) on success. */
+function useSaver(props: PadProps, padKey: string, dirty: boolean, note: Note) {
   const [msg, setMsg] = useState<Msg>(null);
   const [busy, setBusy] = useState(false);
   useEffect(() => {
     setHalfTyped(padKey, dirty);
   }, [padKey, dirty]);
   useEffect(() => () => setHalfTyped(padKey, false), [padKey]);
-  async function save(entry: NewEntry | { error: string }, note: string, onDone: () => void, what: string) {
+  async function save(entry: NewEntry | { error: string }, onDone: () => void, what: string) {
     if ('error' in entry) {
       setMsg({ kind: 'error', text: `${entry.error} Nothing was saved.` });
       return;
     }
-    const n = checkNote(note);
+    const n = checkNote(note.note);
     if (!n.ok) {
       setMsg({ kind: 'error', text: n.message });
       return;
@@ -78,6 +84,7 @@ function useSaver(props: PadProps, padKey: string, dirty: boolean) {
     try {
       const seq = await props.onSave(n.text ? { ...entry, note: n.text } : entry);
       onDone();
+      note.clear();
       setMsg({ kind: 'saved', text: `Saved #${seq}: ${what}` });
     } catch (err) {
       setMsg({ kind: 'error', text: (err as Error).message });
@@ -86,6 +93,66 @@ function useSaver(props: PadProps, padKey: string, dirty: boolean) {
     }
   }
   return { msg, setMsg, busy, save };
+}
+
+/** The label of a pad's Save button while loading, saving, or ready. */
+function saveLabel(disabled: boolean, busy: boolean, ready: string): string {
+  return disabled ? 'Loading…' : busy ? 'Saving…' : ready;
+}
+
+/** The pad as a form: Enter or the Save button submits, and the page never reloads. */
+function PadForm(props: { onSubmit(): void; children: ComponentChildren }) {
+  return (
+    <form
+      class="pad"
+      aria-label="Entry pad"
+      onSubmit={(e) => {
+        e.preventDefault();
+        props.onSubmit();
+      }}
+    >
+      {props.children}
+    </form>
+  );
+}
+
+/** The typed value: a labelled input (typing clears the last message) with its unit beside it. */
+function PadDisplay(props: {
+  id: string;
+  label: ComponentChildren;
+  inputMode: 'none' | 'numeric';
+  text: string;
+  setText(v: string): void;
+  clearMsg(): void;
+  disabled: boolean;
+  unit: string;
+  mark?: ComponentChildren;
+  selectOnFocus?: boolean;
+}) {
+  return (
+    <div class="pad-display">
+      <label for={props.id} class="sr-only">
+        {props.label}
+      </label>
+      <div class="display-row">
+        {props.mark}
+        <input
+          id={props.id}
+          class="display"
+          inputMode={props.inputMode}
+          autoComplete="off"
+          value={props.text}
+          disabled={props.disabled}
+          onFocus={props.selectOnFocus ? (e) => (e.currentTarget as HTMLInputElement).select() : undefined}
+          onInput={(e) => {
+            props.clearMsg();
+            props.setText((e.currentTarget as HTMLInputElement).value);
+          }}
+        />
+        <span class="unit">{props.unit}</span>
+      </div>
+    </div>
+  );
 }
 
 function Key(props: { label: string; aria?: string; onPress(): void; disabled: boolean; cls?: string }) {
@@ -102,16 +169,18 @@ function Key(props: { label: string; aria?: string; onPress(): void; disabled: b
   );
 }
 
-function NoteToggle(props: { open: boolean; toggle(): void; disabled: boolean; has: boolean }) {
+function NoteToggle(props: { note: Note; disabled: boolean }) {
+  const n = props.note;
+  const has = n.note.trim() !== '';
   return (
     <button
       type="button"
-      class={`key small ${props.has ? 'on' : ''}`}
-      aria-expanded={props.open}
+      class={`key small ${has ? 'on' : ''}`}
+      aria-expanded={n.open}
       disabled={props.disabled}
-      onClick={props.toggle}
+      onClick={() => n.setOpen(!n.open)}
     >
-      {props.has ? 'Note ✎' : 'Note'}
+      {has ? 'Note ✎' : 'Note'}
     </button>
   );
 }
@@ -121,7 +190,7 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
   const [censored, setCensored] = useState(false);
   const n = useNote();
   const dirty = text !== '' || n.note.trim() !== '';
-  const { msg, setMsg, busy, save } = useSaver(props, 'measurement', dirty);
+  const { msg, setMsg, busy, save } = useSaver(props, 'measurement', dirty, n);
   const off = props.disabled || busy;
   const type = (s: string) => {
     setMsg(null);
@@ -131,12 +200,9 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
     const p = parseMeasurement(text, 'Value');
     void save(
       p.ok ? { value: p.value, ...(censored ? { censored: true } : {}) } : { error: p.message },
-      n.note,
       () => {
         setText('');
         setCensored(false);
-        n.setNote('');
-        n.setOpen(false);
       },
       `${censored ? '< ' : ''}${text.trim()} ${props.unit}`.trim(),
     );
@@ -146,36 +212,18 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
     if (!censored && text === '' && props.reportingLimit !== undefined) setText(String(props.reportingLimit));
   };
   return (
-    <form
-      class="pad"
-      aria-label="Entry pad"
-      onSubmit={(e) => {
-        e.preventDefault();
-        submit();
-      }}
-    >
-      <div class="pad-display">
-        <label for="value-input" class="sr-only">
-          {censored ? 'Reporting limit (result below it)' : 'Value'}
-          {props.unit ? ` in ${props.unit}` : ''}
-        </label>
-        <div class="display-row">
-          {censored && <span class="rl-mark">&lt;</span>}
-          <input
-            id="value-input"
-            class="display"
-            inputMode="none"
-            autoComplete="off"
-            value={text}
-            disabled={props.disabled}
-            onInput={(e) => {
-              setMsg(null);
-              setText((e.currentTarget as HTMLInputElement).value);
-            }}
-          />
-          <span class="unit">{props.unit}</span>
-        </div>
-      </div>
+    <PadForm onSubmit={submit}>
+      <PadDisplay
+        id="value-input"
+        label={`${censored ? 'Reporting limit (result below it)' : 'Value'}${props.unit ? ` in ${props.unit}` : ''}`}
+        inputMode="none"
+        text={text}
+        setText={setText}
+        clearMsg={() => setMsg(null)}
+        disabled={props.disabled}
+        unit={props.unit}
+        mark={censored && <span class="rl-mark">&lt;</span>}
+      />
       {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-measurement" />}
       <PadMessage msg={msg} />
       <div class="keys">
@@ -211,20 +259,15 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
           below RL
         </button>
         <Key label="0" onPress={() => type('0')} disabled={off} cls="wide" />
-        <NoteToggle
-          open={n.open}
-          toggle={() => n.setOpen(!n.open)}
-          disabled={off}
-          has={n.note.trim() !== ''}
-        />
+        <NoteToggle note={n} disabled={off} />
       </div>
       <div class="save-row">
         {props.undo}
         <button type="submit" class="save" disabled={off}>
-          {props.disabled ? 'Loading…' : busy ? 'Saving…' : 'Save'}
+          {saveLabel(props.disabled, busy, 'Save')}
         </button>
       </div>
-    </form>
+    </PadForm>
   );
 }
 
@@ -232,7 +275,7 @@ export function CountPad(props: PadProps) {
   const [text, setText] = useState('0');
   const n = useNote();
   const dirty = (text !== '0' && text !== '') || n.note.trim() !== '';
-  const { msg, setMsg, busy, save } = useSaver(props, 'count', dirty);
+  const { msg, setMsg, busy, save } = useSaver(props, 'count', dirty, n);
   const off = props.disabled || busy;
   const parsed = parseCount(text);
   const step = (d: number) => {
@@ -244,45 +287,23 @@ export function CountPad(props: PadProps) {
     const p = parseCount(text, 'Count');
     void save(
       p.ok ? { value: p.value } : { error: p.message },
-      n.note,
-      () => {
-        setText('0');
-        n.setNote('');
-        n.setOpen(false);
-      },
+      () => setText('0'),
       `${text.trim()} in the plot`,
     );
   };
   return (
-    <form
-      class="pad"
-      aria-label="Entry pad"
-      onSubmit={(e) => {
-        e.preventDefault();
-        submit();
-      }}
-    >
-      <div class="pad-display">
-        <label for="count-input" class="sr-only">
-          Count in this plot
-        </label>
-        <div class="display-row">
-          <input
-            id="count-input"
-            class="display"
-            inputMode="numeric"
-            autoComplete="off"
-            value={text}
-            disabled={props.disabled}
-            onFocus={(e) => (e.currentTarget as HTMLInputElement).select()}
-            onInput={(e) => {
-              setMsg(null);
-              setText((e.currentTarget as HTMLInputElement).value);
-            }}
-          />
-          <span class="unit">per plot</span>
-        </div>
-      </div>
+    <PadForm onSubmit={submit}>
+      <PadDisplay
+        id="count-input"
+        label="Count in this plot"
+        inputMode="numeric"
+        text={text}
+        setText={setText}
+        clearMsg={() => setMsg(null)}
+        disabled={props.disabled}
+        unit="per plot"
+        selectOnFocus
+      />
       {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-count" />}
       <PadMessage msg={msg} />
       <div class="counter">
@@ -303,35 +324,22 @@ export function CountPad(props: PadProps) {
         <button type="button" class="key small" disabled={off} onClick={() => setText('0')}>
           Zero
         </button>
-        <NoteToggle
-          open={n.open}
-          toggle={() => n.setOpen(!n.open)}
-          disabled={off}
-          has={n.note.trim() !== ''}
-        />
+        <NoteToggle note={n} disabled={off} />
         {props.undo}
       </div>
       <button type="submit" class="save" disabled={off}>
-        {props.disabled ? 'Loading…' : busy ? 'Saving…' : `Save plot: ${parsed.ok ? parsed.value : text}`}
+        {saveLabel(props.disabled, busy, `Save plot: ${parsed.ok ? parsed.value : text}`)}
       </button>
-    </form>
+    </PadForm>
   );
 }
 
 export function PassFailPad(props: PadProps & { outcome: string }) {
   const n = useNote();
-  const { msg, busy, save } = useSaver(props, 'pass-fail', n.note.trim() !== '');
+  const { msg, busy, save } = useSaver(props, 'pass-fail', n.note.trim() !== '', n);
   const off = props.disabled || busy;
   const press = (value: 0 | 1) =>
-    save(
-      { value },
-      n.note,
-      () => {
-        n.setNote('');
-        n.setOpen(false);
-      },
-      value ? props.outcome : `no ${props.outcome}`,
-    );
+    save({ value }, () => undefined, value ? props.outcome : `no ${props.outcome}`);
   return (
     <fieldset class="pad">
       <legend class="sr-only">Entry pad</legend>
@@ -347,12 +355,7 @@ export function PassFailPad(props: PadProps & { outcome: string }) {
         </PfButton>
       </div>
       <div class="row2">
-        <NoteToggle
-          open={n.open}
-          toggle={() => n.setOpen(!n.open)}
-          disabled={off}
-          has={n.note.trim() !== ''}
-        />
+        <NoteToggle note={n} disabled={off} />
         {props.undo}
       </div>
     </fieldset>
