@@ -1,4 +1,5 @@
-// Deterministic check of the shipped JavaScript against DESIGN.md's budget: the app shell ≤ 60 KB gzipped.
+// Deterministic check of the shipped JavaScript against its budget (DEVELOPERS.md, "Budgets"): the app
+// shell ≤ 60 KB gzipped.
 // The app shell is the JavaScript the page needs before its first paint: the entry script(s) of
 // dist/index.html and every chunk they import statically. Chunks loaded with import() after the first
 // paint (the statistics core, the hand-over exports) are reported beside it, not hidden.

@@ -2,7 +2,7 @@
  * Faults on the production build in real Chromium (phone profile): the browser killed right after a tap,
  * offline + reload + relaunch, two tabs, a schema upgrade from another tab, storage full, persistent
  * storage refused, and a database written by the first schema version. What is on disk is read with raw
- * IndexedDB calls, not through the app. Facts relied on (TOOLCHAIN.md Part B): IndexedDB transactions are
+ * IndexedDB calls, not through the app. Facts relied on: IndexedDB transactions are
  * atomic, an uncommitted one is absent after a crash (MDN, IDBTransaction); a version change waits until
  * every other connection closed (MDN, IDBDatabase versionchange event); a quota failure surfaces as a
  * transaction abort named QuotaExceededError (MDN, Storage quotas and eviction criteria).
@@ -305,7 +305,7 @@ test('persistent storage refused: a visible warning recommends installing the ap
   page,
 }) => {
   await page.goto('/');
-  // headless Chromium answers persist() with false (TOOLCHAIN.md §5, measured)
+  // headless Chromium answers persist() with false (measured on the Debian Chromium the tests use)
   expect(await page.evaluate(() => navigator.storage.persisted())).toBe(false);
   const note = page.getByTestId('persist');
   await expect(note).toBeVisible();

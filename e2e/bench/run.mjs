@@ -1,11 +1,11 @@
-// `npm run bench`: the performance benchmark of DESIGN.md's budgets, in headless Chromium on a phone
+// `npm run bench`: the performance benchmark of the budgets in DEVELOPERS.md, in headless Chromium on a phone
 // profile (390×844, touch) with the CPU throttled 4× through the DevTools Protocol
 // (Emulation.setCPUThrottlingRate). Not part of `npm test`: timings are measured, never asserted in tests.
 //
 //   node e2e/bench/run.mjs [--dist <dir>]     (default dist/; built with `vite build` when missing)
 //
 // Figures (each printed with its budget and written to bench-results.json as
-// [{"name","value","unit","budget","pass"}]; budget and pass are null where DESIGN.md sets none):
+// [{"name","value","unit","budget","pass"}]; budget and pass are null where DEVELOPERS.md sets none):
 // - tap → saved → re-rendered, with 5,000 observations already in the study: from the Save tap's
 //   pointerdown (Event.timeStamp) to the DOM showing "Saved #k" (set only after the IndexedDB commit)
 //   together with the new n, then the next animation frame; median and 95th percentile over 60 taps after
