@@ -135,7 +135,8 @@ const show = (v: unknown): string =>
           ? 'an object'
           : String(v);
 const isTargetKind = (v: unknown): v is Target['kind'] => TARGET_KINDS.includes(v as Target['kind']);
-const oneOf = (xs: readonly string[]) => `${xs.slice(0, -1).join(', ')} or ${xs.at(-1)}`;
+const oneOf = (xs: readonly string[]) =>
+  xs.length === 1 ? xs[0]! : `${xs.slice(0, -1).join(', ')} or ${xs.at(-1)}`;
 
 /** `prefix` + path, for messages: `study.setup` + `strata[1].name`; an empty path names the prefix. */
 export function setupPath(prefix: string, path: string): string {

@@ -203,8 +203,9 @@ describe('parseBundle', () => {
       }),
     );
     expect(p).toContain('study.setup.kind: must be measurement, count or pass-fail, got "weight"');
-    expect(p).toContain('study.setup.level: must be between 0 and 1, got 95');
-    expect(p).toContain('study.setup.target.value: must be greater than 0, got -2');
+    // the setup's words are the one setup validator's (src/model/setup.ts), the same on every surface
+    expect(p).toContain('study.setup.level: must be strictly between 0 and 1 (0 % and 100 %)');
+    expect(p).toContain('study.setup.target.value: must be greater than 0');
   });
   it('never a partial bundle: any problem means no bundle', async () => {
     const r = await parseBundle(await damaged((b) => (b.events[4].at = 'yesterday')));
@@ -244,7 +245,6 @@ describe('setup members added for strata and designs', () => {
         { name: 'wet', weight: 2 },
         { name: 'dry', weight: 1, cost: 3, population: 40 },
       ],
-      nonDetects: 'kaplan-meier',
     });
     const b = await makeBundle(
       st,
@@ -261,10 +261,10 @@ describe('setup members added for strata and designs', () => {
     bad.checksum.value = await bundleChecksum(bad.study, bad.events);
     const p = await problemsOf(JSON.stringify(bad));
     expect(p).toEqual([
-      'study.setup.design: must be "composite" when present, got "grid"',
-      'study.setup.strata[0].weight: must be greater than 0, got 0',
-      'study.setup.strata[1].colour: unknown field (not in bundle format version 1)',
+      'study.setup.strata[0].weight: must be greater than 0',
+      'study.setup.strata[1].colour: unknown field (not part of a study setup)',
       'study.setup.strata[1].name: "wet" is listed twice',
+      'study.setup.design: must be composite, got "grid"',
     ]);
   });
   it('makeBundle leaves out storage-only members but keeps every record member', async () => {
