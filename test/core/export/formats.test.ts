@@ -27,7 +27,7 @@ const awkward = [
   ' lead space',
 ];
 
-function countBundle() {
+async function countBundle() {
   const st = study({}, { notes: 'Field notes, "first" day' });
   const ev = entries(st, [3, 0, 5, 2, 7, 0, 1], 'phone-A', 2, 0, (i) => ({
     label: `Q${i + 1}`,
@@ -38,10 +38,10 @@ function countBundle() {
     ...(i === 6 ? { stratum: 'wet', cluster: 'T2' } : {}),
   }));
   ev.push(voidOf(st, ev[2]!, 8, uuid(3, 1), 'plot counted twice, "Q3"'));
-  return makeBundle(st, ev);
+  return await makeBundle(st, ev);
 }
 
-function measurementBundle() {
+async function measurementBundle() {
   const st = study({
     kind: 'measurement',
     unit: 'mg/kg',
@@ -52,10 +52,13 @@ function measurementBundle() {
   const ev = entries(st, [12.5, 0.5, 301, 44.25], 'phone-B', 4, 0, (i) =>
     i === 1 ? { censored: true } : {},
   );
-  return makeBundle(st, ev);
+  return await makeBundle(st, ev);
 }
 
 /** Python's csv module reads the text (newline='' as its docs require) and returns rows as JSON. */
+// Built once at the top level: a bundle is asynchronous (its checksum is the platform's SHA-256).
+const COUNT = await countBundle();
+
 function pythonCsv(text: string): string[][] {
   const out = execFileSync(
     'python3',
@@ -69,18 +72,18 @@ function pythonCsv(text: string): string[][] {
 }
 
 describe('CSV (RFC 4180) read back by Python csv', () => {
-  const b = countBundle();
+  const b = COUNT;
   const text = eventsCsv(b);
   const rows = pythonCsv(text);
   const [header, ...body] = rows;
 
-  it('every record ends with CRLF (RFC 4180 §2 rules 1–2), no bare LF outside quotes', () => {
+  it('every record ends with CRLF (RFC 4180 §2 rules 1–2), no bare LF outside quotes', async () => {
     expect(text.endsWith('\r\n')).toBe(true);
     // Remove quoted fields; what is left must only have CRLF line ends.
     const unquoted = text.replace(/"(?:[^"]|"")*"/g, '');
     expect(unquoted.split('\r\n').every((line) => !line.includes('\n') && !line.includes('\r'))).toBe(true);
   });
-  it('one row per event including voids, with status', () => {
+  it('one row per event including voids, with status', async () => {
     expect(body).toHaveLength(b.events.length);
     const st = body.map((r) => r[header!.indexOf('status')]);
     expect(st).toEqual([
@@ -94,7 +97,7 @@ describe('CSV (RFC 4180) read back by Python csv', () => {
       'void-record',
     ]);
   });
-  it('fields come back exactly (commas, quotes, CRLF, non-ASCII)', () => {
+  it('fields come back exactly (commas, quotes, CRLF, non-ASCII)', async () => {
     const note = header!.indexOf('note');
     expect(body.slice(0, 7).map((r) => r[note])).toEqual(awkward);
     expect(body[7]![header!.indexOf('void_reason')]).toBe('plot counted twice, "Q3"');
@@ -106,10 +109,10 @@ describe('CSV (RFC 4180) read back by Python csv', () => {
     expect(Number(body[1]![header!.indexOf('longitude')])).toBe(b.events[1]!.position!.lon);
     expect(body[3]![header!.indexOf('latitude')]).toBe('');
   });
-  it('all rows have the header width', () => {
+  it('all rows have the header width', async () => {
     for (const r of body) expect(r).toHaveLength(header!.length);
   });
-  it('the data dictionary describes every column, in order, then the study-level design', () => {
+  it('the data dictionary describes every column, in order, then the study-level design', async () => {
     const dict = pythonCsv(dataDictionaryCsv(b));
     expect(dict[0]).toEqual(['column', 'type', 'unit', 'description', 'allowed_values']);
     const columnRows = dict.slice(1).filter((r) => !r[0]!.startsWith('study.'));
@@ -119,7 +122,7 @@ describe('CSV (RFC 4180) read back by Python csv', () => {
     // one entry carries a primary unit (T2), so the estimate uses primary units (src/design usesDesign)
     expect(dict.find((r) => r[0] === 'study.design')![4]).toBe('primary units');
   });
-  it('the dictionary states strata weights, costs, units, the design and the non-detect method (RFC 4180 kept)', () => {
+  it('the dictionary states strata weights, costs, units, the design and the non-detect method (RFC 4180 kept)', async () => {
     const st = study({
       kind: 'measurement',
       unit: 'ug/L',
@@ -132,7 +135,7 @@ describe('CSV (RFC 4180) read back by Python csv', () => {
       nonDetects: 'half-limit',
       reportingLimit: 0.2,
     });
-    const m = makeBundle(
+    const m = await makeBundle(
       st,
       entries(st, [1.2, 0.2, 0.9, 1.4], 'phone-B', 4, 0, (i) => ({
         stratum: i % 2 ? 'downstream' : 'upstream, "old" weir',
@@ -170,15 +173,15 @@ describe('CSV (RFC 4180) read back by Python csv', () => {
     expect(setting('stratum')![4]).toBe('upstream, "old" weir, downstream');
     expect(setting('censored')![3]).toContain('half the reporting limit');
     // no design rows that do not apply: counts have no non-detect row; a composite study says so
-    const c = countBundle();
+    const c = await countBundle();
     expect(pythonCsv(dataDictionaryCsv(c)).some((r) => r[0] === 'study.non_detects')).toBe(false);
     const cs = study({ kind: 'measurement', plotArea: undefined, taxon: undefined, design: 'composite' });
-    const comp = pythonCsv(dataDictionaryCsv(makeBundle(cs, entries(cs, [4, 5], 'x', 2))));
+    const comp = pythonCsv(dataDictionaryCsv(await makeBundle(cs, entries(cs, [4, 5], 'x', 2))));
     expect(comp.find((r) => r[0] === 'study.design')![4]).toBe('composite');
     expect(comp.find((r) => r[0] === 'study.non_detects')![4]).toBe('kaplan-meier');
   });
-  it('measurement: unit in the value header, censored column', () => {
-    const m = measurementBundle();
+  it('measurement: unit in the value header, censored column', async () => {
+    const m = await measurementBundle();
     const [h, ...r] = pythonCsv(eventsCsv(m));
     expect(h).toContain('value_mg_per_kg');
     expect(r.map((x) => x[h!.indexOf('censored')])).toEqual(['false', 'true', 'false', 'false']);
@@ -186,14 +189,14 @@ describe('CSV (RFC 4180) read back by Python csv', () => {
     const dict = pythonCsv(dataDictionaryCsv(m));
     expect(dict.find((x) => x[0] === 'value_mg_per_kg')![2]).toBe('mg/kg');
   });
-  it('field quoting by RFC 4180 §2 rules 6–7', () => {
+  it('field quoting by RFC 4180 §2 rules 6–7', async () => {
     expect(csvField('a')).toBe('a');
     expect(csvField('a,b')).toBe('"a,b"');
     expect(csvField('say "hi"')).toBe('"say ""hi"""');
     expect(csvField('x\ny')).toBe('"x\ny"');
     expect(csvField(undefined)).toBe('');
   });
-  it('unit slugs for headers', () => {
+  it('unit slugs for headers', async () => {
     expect(unitSlug('mg/kg')).toBe('mg_per_kg');
     expect(unitSlug('ug/L')).toBe('ug_per_L');
     expect(unitSlug('µg/m3')).toBe('ug_per_m3');
@@ -205,17 +208,17 @@ describe('CSV (RFC 4180) read back by Python csv', () => {
 });
 
 describe('GeoJSON (RFC 7946)', () => {
-  const b = countBundle();
+  const b = COUNT;
   const parsed = JSON.parse(geoJsonText(b));
 
-  it('§3.3: a FeatureCollection with a "features" array', () => {
+  it('§3.3: a FeatureCollection with a "features" array', async () => {
     expect(parsed.type).toBe('FeatureCollection');
     expect(Array.isArray(parsed.features)).toBe(true);
   });
-  it('§4: no "crs" member anywhere', () => {
+  it('§4: no "crs" member anywhere', async () => {
     expect(JSON.stringify(parsed)).not.toContain('"crs"');
   });
-  it('§3.2: each Feature has "type", "geometry" and "properties" (an object); id is a string', () => {
+  it('§3.2: each Feature has "type", "geometry" and "properties" (an object); id is a string', async () => {
     for (const f of parsed.features) {
       expect(f.type).toBe('Feature');
       expect(f).toHaveProperty('geometry');
@@ -223,7 +226,7 @@ describe('GeoJSON (RFC 7946)', () => {
       expect(typeof f.id).toBe('string');
     }
   });
-  it('§3.1.2 / §3.1.1: Point with one position [longitude, latitude], numbers only', () => {
+  it('§3.1.2 / §3.1.1: Point with one position [longitude, latitude], numbers only', async () => {
     const positioned = b.events.filter((e) => e.position && e.voids === undefined);
     expect(parsed.features).toHaveLength(positioned.length);
     parsed.features.forEach((f: { geometry: { type: string; coordinates: number[] } }, i: number) => {
@@ -235,7 +238,7 @@ describe('GeoJSON (RFC 7946)', () => {
       expect(Math.abs(f.geometry.coordinates[1]!)).toBeLessThanOrEqual(90);
     });
   });
-  it('accuracy is a property; voided entries are marked; entries without position left out', () => {
+  it('accuracy is a property; voided entries are marked; entries without position left out', async () => {
     const fc = entriesGeoJson(b);
     expect(fc.features.map((f) => f.properties.accuracy_m)).toEqual([4, 5, 6, 8, 0, 10]);
     expect(fc.features.map((f) => f.properties.status)).toEqual([
@@ -248,7 +251,7 @@ describe('GeoJSON (RFC 7946)', () => {
     ]);
     expect(fc.features.some((f) => f.properties.label === 'Q4')).toBe(false);
   });
-  it('§7: no foreign member reuses a GeoJSON member name inside properties', () => {
+  it('§7: no foreign member reuses a GeoJSON member name inside properties', async () => {
     for (const f of parsed.features)
       for (const k of ['type', 'geometry', 'coordinates', 'features'])
         expect(f.properties).not.toHaveProperty(k);
@@ -260,24 +263,24 @@ describe('Darwin Core tables', () => {
     readFileSync(new URL('../../fixtures/handover-dwc-terms.json', import.meta.url), 'utf8'),
   );
   const tdwg = new Set<string>(fixture.tdwgTerms);
-  const b = countBundle();
+  const b = COUNT;
   const r = dwcTables(b);
   if (!r.ok) throw new Error(r.message);
   const ev = pythonCsv(r.event);
   const occ = pythonCsv(r.occurrence);
 
-  it('the terms used are exactly the fixture list, each spelled as in the TDWG term list', () => {
+  it('the terms used are exactly the fixture list, each spelled as in the TDWG term list', async () => {
     expect([...DWC_EVENT_TERMS]).toEqual(fixture.termsUsed.event);
     expect([...DWC_OCCURRENCE_TERMS]).toEqual(fixture.termsUsed.occurrence);
     for (const t of [...DWC_EVENT_TERMS, ...DWC_OCCURRENCE_TERMS]) expect(tdwg.has(t), t).toBe(true);
     expect(ev[0]).toEqual(fixture.termsUsed.event);
     expect(occ[0]).toEqual(fixture.termsUsed.occurrence);
   });
-  it('a misspelling would be caught (the check can fail)', () => {
+  it('a misspelling would be caught (the check can fail)', async () => {
     expect(tdwg.has('decimalLatitudes')).toBe(false);
     expect(tdwg.has('coordinateUncertaintyInMetres')).toBe(false);
   });
-  it('one parent event, one child event and one occurrence per counted plot; zeros kept as absences', () => {
+  it('one parent event, one child event and one occurrence per counted plot; zeros kept as absences', async () => {
     const counted = 6; // 7 entries, one voided
     expect(ev).toHaveLength(1 + 1 + counted);
     expect(occ).toHaveLength(1 + counted);
@@ -295,7 +298,7 @@ describe('Darwin Core tables', () => {
     expect(new Set(col(occ, 'scientificName'))).toEqual(new Set(['Carex nigra']));
     expect(col(occ, 'eventID')).toEqual(col(ev, 'eventID').slice(1));
   });
-  it('effort, place and time on the events', () => {
+  it('effort, place and time on the events', async () => {
     const col = (t: string) => ev.slice(1).map((x) => x[ev[0]!.indexOf(t)]);
     expect(col('parentEventID')).toEqual(['', ...Array(6).fill(b.study.id)]);
     expect(col('sampleSizeValue').slice(1)).toEqual(Array(6).fill('0.25'));
@@ -308,11 +311,11 @@ describe('Darwin Core tables', () => {
     expect(col('coordinateUncertaintyInMeters').slice(1)).toEqual(['4', '5', '', '8', '', '10']);
     expect(col('eventRemarks')[6]).toBe('stratum: wet; cluster: T2;  lead space');
   });
-  it('refuses non-count studies and a missing taxon', () => {
-    const m = dwcTables(measurementBundle());
+  it('refuses non-count studies and a missing taxon', async () => {
+    const m = dwcTables(await measurementBundle());
     expect(m.ok).toBe(false);
     const st = study({ taxon: undefined });
-    const nt = dwcTables(makeBundle(st, entries(st, [1], 'x', 2)));
+    const nt = dwcTables(await makeBundle(st, entries(st, [1], 'x', 2)));
     expect(nt.ok === false && nt.message).toMatch(/taxon/);
   });
 });

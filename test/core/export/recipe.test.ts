@@ -11,11 +11,11 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { assess } from '../../../src/assess.ts';
+import { assess } from '../../../src/assess/index.ts';
 import { type Bundle, makeBundle, serializeBundle } from '../../../src/bundle/bundle.ts';
 import { pointsOf } from '../../../src/bundle/events.ts';
 import { commands } from '../../../src/cli/commands.ts';
-import { parseArgs } from '../../../src/cli/io.ts';
+import { type FlagSpec, parseArgs } from '../../../src/cli/io.ts';
 import { assessFlags, assessInputCsv, recipeGaps, shellWord } from '../../../src/export/recipe.ts';
 import { reportHtml, runningInterval } from '../../../src/export/report.ts';
 import type { ObservationRecord, StudySetup } from '../../../src/model/records.ts';
@@ -32,7 +32,10 @@ const MEASURE: Partial<StudySetup> = {
 };
 
 /** A bundle from (value, extra) pairs on one device, with a void of the 4th entry (a typo re-keyed). */
-function build(setup: Partial<StudySetup>, rows: [number, Partial<ObservationRecord>][]): Bundle {
+async function build(
+  setup: Partial<StudySetup>,
+  rows: [number, Partial<ObservationRecord>][],
+): Promise<Bundle> {
   const st = study(setup);
   const ev = entries(
     st,
@@ -46,12 +49,12 @@ function build(setup: Partial<StudySetup>, rows: [number, Partial<ObservationRec
   const typo: ObservationRecord = { ...ev[3]!, id: uuid(5, 1), value: ev[3]!.value! * 100 };
   const all = [...ev.slice(0, 4), typo, ...ev.slice(4)].map((e, i) => ({ ...e, seq: i + 1 }));
   all.push(voidOf(st, typo, all.length + 1, uuid(3, 1), 'keyed ×100'));
-  return makeBundle(st, all);
+  return await makeBundle(st, all);
 }
 
 const WET = 'wet meadow';
 const DRY = "dry, upland 'north'";
-const stratified = build(
+const stratified = await build(
   {
     ...MEASURE,
     target: { kind: 'margin', value: 2 },
@@ -87,11 +90,11 @@ const transects: [number, string][] = [
   [3, 'T 5'],
   [5, 'T 5'],
 ];
-const clustered = build(
+const clustered = await build(
   {},
   transects.map(([v, c]) => [v, { cluster: c }]),
 );
-const stratifiedClustered = build(
+const stratifiedClustered = await build(
   {
     strata: [
       { name: 'north', weight: 3.5, cost: 1.5 },
@@ -118,15 +121,15 @@ const ND: [number, boolean][] = [
   [2.2, false],
 ];
 const ndRows = ND.map(([v, c]): [number, Partial<ObservationRecord>] => [v, c ? { censored: true } : {}]);
-const kaplanMeier = build(
+const kaplanMeier = await build(
   { ...MEASURE, target: { kind: 'limit', value: 3, source: 'soil guideline', date: '2024-01-01' } },
   ndRows,
 );
-const halfLimit = build(
+const halfLimit = await build(
   { ...MEASURE, target: { kind: 'relative', value: 0.3 }, nonDetects: 'half-limit', reportingLimit: 0.5 },
   ndRows,
 );
-const composite = build(
+const composite = await build(
   {
     ...MEASURE,
     design: 'composite',
@@ -136,7 +139,7 @@ const composite = build(
   },
   [41, 55, 48, 52].map((v) => [v, {}]),
 );
-const sprt = build(
+const sprt = await build(
   {
     rule: 'sprt',
     target: { kind: 'limit', value: 2 },
@@ -146,7 +149,7 @@ const sprt = build(
   },
   [1, 0, 2, 1, 0, 1, 3, 0, 1, 1, 0, 2, 1, 0, 0, 1, 2, 0, 1, 1].map((v) => [v, {}]),
 );
-const passFail = build(
+const passFail = await build(
   {
     kind: 'pass-fail',
     plotArea: undefined,
@@ -189,11 +192,12 @@ function recipeWords(html: string): string[][] {
 }
 
 /** Runs one recipe command like a shell in `dir`: `sure-enough CMD ARGS [> FILE]`. */
-function runRecipe(words: string[], files: Record<string, string>): string {
+async function runRecipe(words: string[], files: Record<string, string>): Promise<string> {
   expect(words[0]).toBe('sure-enough');
   const gt = words.indexOf('>');
   const argv = (gt >= 0 ? words.slice(2, gt) : words.slice(2)).map((w) => (w in files ? files[w]! : w));
-  const out = commands[words[1]!]!.run(parseArgs(argv));
+  const command = commands[words[1]!]!;
+  const out = await command.run(parseArgs(argv, (command as { flags?: FlagSpec }).flags ?? {}, words[1]));
   if (gt >= 0) writeFileSync(files[words[gt + 1]!] ?? join(dir, words[gt + 1]!), out);
   return out;
 }
@@ -208,8 +212,8 @@ function exactFigures(html: string): Record<string, number | null> {
 
 describe("the report's recipe reproduces its figures with sure-enough assess", () => {
   for (const [name, bundle, method] of CASES)
-    it(name, () => {
-      const html = reportHtml(bundle, { coverage: null });
+    it(name, async () => {
+      const html = await reportHtml(bundle, { coverage: null });
       expect(recipeGaps(bundle)).toEqual([]);
       expect(html).toContain('the second prints the figures below exactly');
       const [exportCmd, assessCmd] = recipeWords(html) as [string[], string[]];
@@ -218,8 +222,8 @@ describe("the report's recipe reproduces its figures with sure-enough assess", (
         'values.csv': join(dir, `${name.length}-${method}-values.csv`),
       };
       writeFileSync(files['study.bundle.json'], serializeBundle(bundle));
-      runRecipe(exportCmd, files);
-      const cli = JSON.parse(runRecipe(assessCmd, files));
+      await runRecipe(exportCmd, files);
+      const cli = JSON.parse(await runRecipe(assessCmd, files));
       const fig = exactFigures(html);
       const a = assess(pointsOf(bundle.events), bundle.study.setup);
       if (method) expect(a.method).toBe(method);
@@ -233,7 +237,7 @@ describe("the report's recipe reproduces its figures with sure-enough assess", (
       expect(readFileSync(files['values.csv'], 'utf8').split('\r\n')).toHaveLength(a.n + 2);
     });
 
-  it('the design flags are all in the recipe, quoted for the shell', () => {
+  it('the design flags are all in the recipe, quoted for the shell', async () => {
     expect(assessFlags(stratified.study.setup)).toBe(
       `--kind measurement --level 0.95 --sided two --target margin:2 --rule standard --min 10 --strata 'wet meadow:0.6;dry, upland '\\''north'\\'':0.4' --cost 'wet meadow:2'`,
     );
@@ -251,7 +255,7 @@ describe("the report's recipe reproduces its figures with sure-enough assess", (
     expect(shellWord("it's")).toBe(`'it'\\''s'`);
   });
 
-  it('the values file carries non-detects, strata and primary units; a CSV parser reads it', () => {
+  it('the values file carries non-detects, strata and primary units; a CSV parser reads it', async () => {
     const rows = pythonCsv(assessInputCsv(stratifiedClustered));
     expect(rows[0]).toEqual(['value', 'stratum', 'cluster']);
     // row 17 = counted entry 17 = transects[16] (4 on T 5) + 16 mod 3
@@ -263,7 +267,7 @@ describe("the report's recipe reproduces its figures with sure-enough assess", (
     expect(st[2]).toEqual(['8.2', DRY]);
   });
 
-  it('what the command line cannot carry is stated in the report', () => {
+  it('what the command line cannot carry is stated in the report', async () => {
     const st = study({
       ...MEASURE,
       strata: [
@@ -271,14 +275,14 @@ describe("the report's recipe reproduces its figures with sure-enough assess", (
         { name: ' b', weight: 1 },
       ],
     });
-    const b = makeBundle(
+    const b = await makeBundle(
       st,
       entries(st, [1, 2, 3, 4], 'x', 2, 0, (i) => ({ stratum: i < 2 ? 'a' : ' b' })),
     );
     const gaps = recipeGaps(b);
     expect(gaps.join('\n')).toMatch(/stratum "a" has a number of units \(40\)/);
     expect(gaps.join('\n')).toMatch(/stratum name " b" cannot be written/);
-    expect(reportHtml(b, { coverage: null })).toContain(
+    expect(await reportHtml(b, { coverage: null })).toContain(
       'The command line cannot reproduce this study exactly',
     );
   });
@@ -286,7 +290,7 @@ describe("the report's recipe reproduces its figures with sure-enough assess", (
 
 describe('the running chart uses the design-aware assessment', () => {
   for (const [name, bundle] of CASES)
-    it(`${name}: the last chart point is the reported interval`, () => {
+    it(`${name}: the last chart point is the reported interval`, async () => {
       const run = runningInterval(bundle);
       const a = assess(pointsOf(bundle.events), bundle.study.setup);
       const last = run[run.length - 1]!;
@@ -295,16 +299,16 @@ describe('the running chart uses the design-aware assessment', () => {
       expect(last.lower).toBe(a.lower);
       expect(last.upper).toBe(a.upper);
     });
-  it('non-detects: the chart has a Kaplan–Meier band (the simple path gives none with <RL values)', () => {
+  it('non-detects: the chart has a Kaplan–Meier band (the simple path gives none with <RL values)', async () => {
     const run = runningInterval(kaplanMeier);
     // limit target, two-sided setup: the bound on the estimate's side (upper here) is the one reported
     expect(run.filter((p) => p.upper !== null).length).toBeGreaterThan(5);
-    const html = reportHtml(kaplanMeier, { coverage: null });
+    const html = await reportHtml(kaplanMeier, { coverage: null });
     expect(html).toContain('<polygon points=');
     expect(html).toContain('the design-based estimate wherever the design applies');
   });
-  it('a one-sided bound is drawn (band from the estimate to the bound) and shown as "at most"', () => {
-    const html = reportHtml(composite, { coverage: null });
+  it('a one-sided bound is drawn (band from the estimate to the bound) and shown as "at most"', async () => {
+    const html = await reportHtml(composite, { coverage: null });
     expect(html).toContain('<polygon points=');
     const a = assess(pointsOf(composite.events), composite.study.setup);
     expect(a.lower).toBeNull();

@@ -6,7 +6,7 @@
  */
 import { execFileSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
-import { assess } from '../../../src/assess.ts';
+import { assess } from '../../../src/assess/index.ts';
 import { makeBundle } from '../../../src/bundle/bundle.ts';
 import { pointsOf } from '../../../src/bundle/events.ts';
 import { coverageStatement } from '../../../src/export/coverage.ts';
@@ -22,7 +22,7 @@ const HOSTILE = {
   unit: 'mg/kg<style>body{display:none}</style>',
 };
 
-function hostileBundle() {
+async function hostileBundle() {
   const st = study(
     {
       kind: 'measurement',
@@ -38,7 +38,7 @@ function hostileBundle() {
   ev.push(...entries(st, [10.4, 12.9], 'phone-B', 4, 30, () => ({ label: HOSTILE.label })));
   for (const [i, e] of ev.entries()) e.seq = i + 1;
   ev.push(voidOf(st, ev[3]!, ev.length + 1, uuid(3, 1), HOSTILE.reason));
-  return makeBundle(st, ev);
+  return await makeBundle(st, ev);
 }
 
 /** Python html.parser: start tags with their attributes, and all text. */
@@ -63,12 +63,13 @@ print(json.dumps({'tags': p.tags, 'text': ''.join(p.text)}))`,
   return JSON.parse(out);
 }
 
-describe('report HTML', () => {
-  const b = hostileBundle();
-  const html = reportHtml(b, { coverage: null });
-  const parsed = pyParse(html);
+// Built at the top level: a bundle and its report are asynchronous (the platform's SHA-256).
+const b = await hostileBundle();
+const html = await reportHtml(b, { coverage: null });
+const parsed = pyParse(html);
 
-  it('typed text cannot inject elements or attributes', () => {
+describe('report HTML', () => {
+  it('typed text cannot inject elements or attributes', async () => {
     const names = new Set(parsed.tags.map(([t]) => t));
     for (const bad of ['script', 'img', 'iframe', 'object', 'embed', 'link', 'base', 'form'])
       expect(names.has(bad), bad).toBe(false);
@@ -80,22 +81,22 @@ describe('report HTML', () => {
         expect(String(v ?? '')).not.toMatch(/javascript:/i);
       }
   });
-  it('the hostile text is shown as text', () => {
+  it('the hostile text is shown as text', async () => {
     for (const v of Object.values(HOSTILE)) expect(parsed.text).toContain(v);
   });
-  it('the injection test itself can fail: unescaped text would be caught', () => {
+  it('the injection test itself can fail: unescaped text would be caught', async () => {
     const bad = pyParse(`<p>${HOSTILE.notes}</p>`);
     expect(bad.tags.some(([t]) => t === 'img')).toBe(true);
     expect(escapeHtml(`<a href="x">'&'</a>`)).toBe('&lt;a href=&quot;x&quot;&gt;&#39;&amp;&#39;&lt;/a&gt;');
   });
-  it('no script, no external resources; print CSS present', () => {
+  it('no script, no external resources; print CSS present', async () => {
     expect(html).not.toMatch(/<script/i);
     for (const [, attrs] of parsed.tags)
       for (const [k] of attrs) expect(['src', 'href', 'srcset'].includes(k), k).toBe(false);
     expect(html).toContain('@media print');
     expect(html).toMatch(/<svg[^>]*role="img"/);
   });
-  it('figures are those of assess on the counted entries; coverage not yet measured', () => {
+  it('figures are those of assess on the counted entries; coverage not yet measured', async () => {
     const a = assess(pointsOf(b.events), b.study.setup);
     expect(a.n).toBe(13);
     expect(html).toContain(`<code>estimate = ${a.estimate}</code>`);
@@ -107,30 +108,30 @@ describe('report HTML', () => {
     expect(parsed.text).toContain(b.checksum.value);
     expect(parsed.text).toContain('The tool gives statistical guidance only.');
   });
-  it('coverage figure when given', () => {
-    const withCov = reportHtml(b, { coverage: '0.951 at 95 % (benchmark grid)' });
+  it('coverage figure when given', async () => {
+    const withCov = await reportHtml(b, { coverage: '0.951 at 95 % (benchmark grid)' });
     expect(pyParse(withCov).text).toContain(
       'Measured coverage of this rule: 0.951 at 95 % (benchmark grid).',
     );
   });
-  it('measured coverage: the rule and kind’s benchmark figures, the level they were measured at, and the design caveat', () => {
+  it('measured coverage: the rule and kind’s benchmark figures, the level they were measured at, and the design caveat', async () => {
     const st = study({ level: 0.9 });
-    const counts = makeBundle(st, entries(st, [3, 0, 5, 2, 7, 0, 1, 4, 2, 3, 6, 1], 'phone-A', 2));
-    const text = pyParse(reportHtml(counts, { coverage: coverageStatement(st.setup) })).text;
+    const counts = await makeBundle(st, entries(st, [3, 0, 5, 2, 7, 0, 1, 4, 2, 3, 6, 1], 'phone-A', 2));
+    const text = pyParse(await reportHtml(counts, { coverage: coverageStatement(st.setup) })).text;
     expect(text).toContain('in 92.7–96.2 % of runs across the 6 count cells');
     expect(text).toContain('(The benchmark ran at 95 %; this study uses 90 %.)');
     expect(text).not.toContain('design-based interval');
     const sprt = { ...st.setup, rule: 'sprt' as const };
     expect(coverageStatement(sprt)).toContain('at most 2.93 % of runs (asked: 5 %)');
-    const clustered = makeBundle(
+    const clustered = await makeBundle(
       st,
       entries(st, [3, 0, 5, 2, 7, 0, 1, 4, 2, 3, 6, 1], 'phone-A', 2, 0, (i) => ({ cluster: `T${i % 4}` })),
     );
-    expect(pyParse(reportHtml(clustered, { coverage: coverageStatement(st.setup) })).text).toContain(
+    expect(pyParse(await reportHtml(clustered, { coverage: coverageStatement(st.setup) })).text).toContain(
       'That benchmark simulates simple random samples; the coverage of this design-based interval under the stopping rule has not been measured.',
     );
   });
-  it('running interval ends at the final assessment', () => {
+  it('running interval ends at the final assessment', async () => {
     const run = runningInterval(b);
     const a = assess(pointsOf(b.events), b.study.setup);
     const last = run[run.length - 1]!;
@@ -138,7 +139,7 @@ describe('report HTML', () => {
     expect(last.lower).toBe(a.lower);
     expect(last.upper).toBe(a.upper);
   });
-  it('reproduce flags', () => {
+  it('reproduce flags', async () => {
     expect(assessFlags(b.study.setup)).toBe(
       '--kind measurement --level 0.95 --sided two --target relative:0.25 --rule standard --min 10',
     );
