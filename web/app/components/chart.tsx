@@ -4,6 +4,7 @@
  * bounded work whatever the number of entries.
  */
 import type { Assessment, Target } from '../../core.ts';
+import { decimalsFor, fixed } from '../../core-light.ts';
 import type { SeriesPoint } from '../../state/session.ts';
 
 const W = 360;
@@ -19,10 +20,9 @@ export interface ChartProps {
   label: string;
 }
 
-/** Tick label with enough decimals to tell ticks `step` apart. */
+/** Tick label with enough decimals to tell ticks `step` apart (the words module's rounding rule). */
 function nice(x: number, step: number): string {
-  const d = step > 0 ? Math.min(6, Math.max(0, 1 - Math.floor(Math.log10(step)))) : 2;
-  return x.toFixed(d);
+  return fixed(x, decimalsFor(step));
 }
 
 export function Chart({ series, current, target, scale, label }: ChartProps) {
