@@ -11,17 +11,15 @@
  * @example agrestiCoullInterval(81, 263, 0.95, 'two') // { lower: 0.255221, upper: 0.366277 }
  */
 import type { Sided } from '../model/types.ts';
-import { requireBinomial, tailProbability } from './binomial-args.ts';
-import { cachedNormalQuantile } from './quantile-cache.ts';
+import { type BinomialInterval, binomialZ } from './binomial-args.ts';
 
 export function agrestiCoullInterval(
   x: number,
   n: number,
   level: number,
   sided: Sided,
-): { estimate: number; lower: number; upper: number; centre: number; se: number } {
-  requireBinomial('agrestiCoullInterval', x, n, level);
-  const z = cachedNormalQuantile(1 - tailProbability(level, sided));
+): BinomialInterval & { centre: number; se: number } {
+  const z = binomialZ('agrestiCoullInterval', x, n, level, sided);
   const nt = n + z * z;
   const centre = (x + (z * z) / 2) / nt;
   const se = Math.sqrt((centre * (1 - centre)) / nt);

@@ -13,17 +13,11 @@
  * @example clopperPearsonInterval(0, 20, 0.95, 'upper').upper // 0.1391 (= 1 − 0.05^{1/20})
  */
 import type { Sided } from '../model/types.ts';
-import { requireBinomial, tailProbability } from './binomial-args.ts';
+import { type BinomialInterval, binomialTail } from './binomial-args.ts';
 import { betaQuantile } from './distributions.ts';
 
-export function clopperPearsonInterval(
-  x: number,
-  n: number,
-  level: number,
-  sided: Sided,
-): { estimate: number; lower: number; upper: number } {
-  requireBinomial('clopperPearsonInterval', x, n, level);
-  const tail = tailProbability(level, sided);
+export function clopperPearsonInterval(x: number, n: number, level: number, sided: Sided): BinomialInterval {
+  const tail = binomialTail('clopperPearsonInterval', x, n, level, sided);
   let upper: number;
   if (sided === 'lower' || x === n) upper = 1;
   else if (x === 0) upper = 1 - tail ** (1 / n);

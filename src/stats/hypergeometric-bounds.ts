@@ -13,7 +13,7 @@
  * @example hypergeometricBounds(0, 50, 500, 0.95, 'upper').upperCount // 27
  */
 import type { Sided } from '../model/types.ts';
-import { requireBinomial, tailProbability } from './binomial-args.ts';
+import { binomialTail } from './binomial-args.ts';
 import { logChoose } from './distributions.ts';
 
 /** P(X ≤ x) for X ~ Hypergeometric(N, D, n): sum of terms from the lowest feasible k up, by term ratios. */
@@ -38,10 +38,9 @@ export function hypergeometricBounds(
   level: number,
   sided: Sided,
 ): { estimate: number; lower: number; upper: number; lowerCount: number; upperCount: number } {
-  requireBinomial('hypergeometricBounds', x, n, level);
+  const tail = binomialTail('hypergeometricBounds', x, n, level, sided);
   if (!(Number.isInteger(lot) && lot >= n))
     throw new RangeError('hypergeometricBounds requires an integer lot >= n');
-  const tail = tailProbability(level, sided);
   // Upper: P(X ≤ x | D) decreases in D; largest D (≥ x, ≤ lot − (n − x)) with cdf ≥ tail.
   let upperCount = lot - (n - x);
   if (sided !== 'lower' && x < n) {

@@ -11,20 +11,16 @@
  * @example jeffreysInterval(81, 263, 0.95, 'two') // { lower: 0.254522, upper: 0.365647 }
  */
 import type { Sided } from '../model/types.ts';
-import { requireBinomial, tailProbability } from './binomial-args.ts';
+import { type BinomialInterval, binomialLimits, binomialTail } from './binomial-args.ts';
 import { betaQuantile } from './distributions.ts';
 
-export function jeffreysInterval(
-  x: number,
-  n: number,
-  level: number,
-  sided: Sided,
-): { estimate: number; lower: number; upper: number } {
-  requireBinomial('jeffreysInterval', x, n, level);
-  const tail = tailProbability(level, sided);
-  return {
-    estimate: x / n,
-    lower: sided === 'upper' || x === 0 ? 0 : betaQuantile(tail, x + 0.5, n - x + 0.5),
-    upper: sided === 'lower' || x === n ? 1 : betaQuantile(1 - tail, x + 0.5, n - x + 0.5),
-  };
+export function jeffreysInterval(x: number, n: number, level: number, sided: Sided): BinomialInterval {
+  const tail = binomialTail('jeffreysInterval', x, n, level, sided);
+  return binomialLimits(
+    x,
+    n,
+    sided,
+    () => betaQuantile(tail, x + 0.5, n - x + 0.5),
+    () => betaQuantile(1 - tail, x + 0.5, n - x + 0.5),
+  );
 }

@@ -13,34 +13,21 @@
  * @example wilsonCcInterval(81, 263, 0.95, 'two') // { lower: 0.2535, upper: 0.3682 }
  */
 import type { Sided } from '../model/types.ts';
-import { requireBinomial, tailProbability } from './binomial-args.ts';
-import { cachedNormalQuantile } from './quantile-cache.ts';
+import { type BinomialInterval, binomialLimits, binomialZ } from './binomial-args.ts';
 
-export function wilsonCcInterval(
-  x: number,
-  n: number,
-  level: number,
-  sided: Sided,
-): { estimate: number; lower: number; upper: number } {
-  requireBinomial('wilsonCcInterval', x, n, level);
-  const z = cachedNormalQuantile(1 - tailProbability(level, sided));
+export function wilsonCcInterval(x: number, n: number, level: number, sided: Sided): BinomialInterval {
+  const z = binomialZ('wilsonCcInterval', x, n, level, sided);
   const p = x / n;
   const q = 1 - p;
   const z2 = z * z;
   const den = 2 * (n + z2);
-  const lower =
-    sided === 'upper' || x === 0
-      ? 0
-      : Math.max(
-          0,
-          (2 * n * p + z2 - 1 - z * Math.sqrt(Math.max(0, z2 - 2 - 1 / n + 4 * p * (n * q + 1)))) / den,
-        );
-  const upper =
-    sided === 'lower' || x === n
-      ? 1
-      : Math.min(
-          1,
-          (2 * n * p + z2 + 1 + z * Math.sqrt(Math.max(0, z2 + 2 - 1 / n + 4 * p * (n * q - 1)))) / den,
-        );
-  return { estimate: p, lower, upper };
+  // The square root of Newcombe's lower limit (sign −1) and of his upper limit (sign +1).
+  const root = (sign: 1 | -1) => z * Math.sqrt(Math.max(0, z2 + 2 * sign - 1 / n + 4 * p * (n * q - sign)));
+  return binomialLimits(
+    x,
+    n,
+    sided,
+    () => Math.max(0, (2 * n * p + z2 - 1 - root(-1)) / den),
+    () => Math.min(1, (2 * n * p + z2 + 1 + root(1)) / den),
+  );
 }

@@ -10,24 +10,19 @@
  * @example wilsonInterval(81, 263, 0.95, 'two') // { lower: 0.2553, upper: 0.3662 }
  */
 import type { Sided } from '../model/types.ts';
-import { requireBinomial, tailProbability } from './binomial-args.ts';
-import { cachedNormalQuantile } from './quantile-cache.ts';
+import { type BinomialInterval, binomialLimits, binomialZ } from './binomial-args.ts';
 
-export function wilsonInterval(
-  x: number,
-  n: number,
-  level: number,
-  sided: Sided,
-): { estimate: number; lower: number; upper: number } {
-  requireBinomial('wilsonInterval', x, n, level);
-  const z = cachedNormalQuantile(1 - tailProbability(level, sided));
+export function wilsonInterval(x: number, n: number, level: number, sided: Sided): BinomialInterval {
+  const z = binomialZ('wilsonInterval', x, n, level, sided);
   const p = x / n;
   const z2 = z * z;
   const centre = (p + z2 / (2 * n)) / (1 + z2 / n);
   const half = (z * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n))) / (1 + z2 / n);
-  return {
-    estimate: p,
-    lower: sided === 'upper' || x === 0 ? 0 : Math.max(0, centre - half),
-    upper: sided === 'lower' || x === n ? 1 : Math.min(1, centre + half),
-  };
+  return binomialLimits(
+    x,
+    n,
+    sided,
+    () => Math.max(0, centre - half),
+    () => Math.min(1, centre + half),
+  );
 }
