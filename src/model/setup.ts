@@ -219,7 +219,7 @@ export function setupProblems(value: unknown): SetupProblem[] {
     p.add('rule', 'the limit decision (sprt) needs a limit target');
   const min = p.number('min', s.min, { required: true, test: isWhole, rule: WHOLE }) ? s.min : undefined;
   p.number('population', s.population, { test: isWhole, rule: WHOLE });
-  if (p.number('plotArea', s.plotArea, { test: (n) => n > 0, rule: ABOVE_0 }) && kind !== 'count')
+  if (p.number('plotArea', s.plotArea, { test: (n) => n > 0, rule: ABOVE_0 }) && kind && kind !== 'count')
     p.add('plotArea', 'applies to counts only');
   if (p.number('max', s.max, { test: isWhole, rule: WHOLE }) && min !== undefined && (s.max as number) < min)
     p.add('max', 'must not be below the minimum number of observations before a verdict');
@@ -231,15 +231,16 @@ export function setupProblems(value: unknown): SetupProblem[] {
   const strata = checkStrata(p, s.strata);
   if (p.choice('design', s.design, DESIGNS, false) && strata)
     p.add('design', 'a composite design cannot be combined with strata');
-  if (p.choice('nonDetects', s.nonDetects, NON_DETECTS, false) && kind !== 'measurement')
+  if (p.choice('nonDetects', s.nonDetects, NON_DETECTS, false) && kind && kind !== 'measurement')
     p.add('nonDetects', 'applies to measurements only');
   // what a reader of the data needs (StudySetup): text, and each for the data kind it describes
   for (const k of TEXT_FIELDS) p.text(k, s[k]);
-  if (typeof s.taxon === 'string' && kind !== 'count') p.add('taxon', 'applies to counts only');
+  if (typeof s.taxon === 'string' && kind && kind !== 'count') p.add('taxon', 'applies to counts only');
   if (typeof s.plotAreaUnit === 'string' && s.plotArea === undefined)
     p.add('plotAreaUnit', 'goes with a plot area (counts)');
   if (
     p.number('reportingLimit', s.reportingLimit, { test: (n) => n > 0, rule: ABOVE_0 }) &&
+    kind &&
     kind !== 'measurement'
   )
     p.add('reportingLimit', 'applies to measurements only');
