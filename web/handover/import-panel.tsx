@@ -1,6 +1,7 @@
 /**
  * "Import a study" on the Studies screen: pick a study bundle (.json) exported by another phone or built
- * by `sure-enough bundle`; it is checked first and written in one transaction, or not at all.
+ * by `sure-enough bundle`; it is checked first, pooled by the rule `sure-enough merge` uses, and written in
+ * one transaction, or not at all (import.ts).
  */
 import { useState } from 'preact/hooks';
 import { href } from '../app/router.ts';
@@ -70,6 +71,11 @@ export function ImportPanel() {
             {outcome.alreadyPresent > 0 ? `, ${outcome.alreadyPresent} already here` : ''}.{' '}
             <a href={href.report(outcome.studyId)}>Open its report</a>
           </p>
+          {outcome.studyDiffers.length > 0 && (
+            <p>
+              The file's study record differs in {outcome.studyDiffers.join(', ')}; this phone keeps its own.
+            </p>
+          )}
           {outcome.duplicates.length > 0 && (
             <p>
               Likely duplicates (both kept):{' '}
