@@ -4,4 +4,11 @@
  */
 export { formatStrata, parseStrata } from '../src/design/strata-spec.ts';
 export * from '../src/words/index.ts';
-export { SETUP_DEFAULTS, type SetupProblem, setupProblems } from '../src/model/setup.ts';
+export {
+  DATA_KINDS,
+  RULES,
+  SETUP_DEFAULTS,
+  type SetupProblem,
+  setupProblems,
+  TARGET_KINDS,
+} from '../src/model/setup.ts';

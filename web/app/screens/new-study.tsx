@@ -5,6 +5,8 @@
  */
 import type { ComponentChildren } from 'preact';
 import { useEffect, useState } from 'preact/hooks';
+import type { DataKind, RuleName, Target } from '../../core.ts';
+import { DATA_KINDS, RULES, TARGET_KINDS } from '../../core-light.ts';
 import { loadCore } from '../../core-loader.ts';
 import { device } from '../../state/app-state.ts';
 import type { StoredStudy } from '../../storage/schema.ts';
@@ -22,6 +24,34 @@ import {
   pctKinds,
   previewSetup,
 } from './new-study-form.ts';
+
+/** Words for each choice; keyed by the core's lists (src/model/setup.ts), so a new value cannot be missed. */
+const KIND_CHOICES: Record<DataKind, [string, string]> = {
+  measurement: ['Measurement', 'A number with a unit per sample (a concentration, a length, a reading).'],
+  count: ['Count per plot', 'A whole number per plot, quadrat, trap or transect section; zero counts too.'],
+  'pass-fail': ['Pass/fail per item', 'Each item either has the outcome you count (e.g. a defect) or not.'],
+};
+/** The naive rule is for comparison in replay only, not offered for a study. */
+const RULE_CHOICES: Record<Exclude<RuleName, 'naive'>, [string, string]> = {
+  standard: [
+    'Standard',
+    'Checks after every entry with a correction for looking often; its coverage is measured.',
+  ],
+  strict: ['Strict', 'Valid however often you look; usually needs more observations.'],
+  sprt: [
+    'Limit decision (SPRT)',
+    'Wald’s sequential test: stops as soon as the data show below or above the limit.',
+  ],
+};
+const targetChoices = (marginUnit: string): Record<Target['kind'], [string, string]> => ({
+  margin: ['Margin', `The interval is at most ± this much (${marginUnit}).`],
+  relative: ['Relative', 'The interval is at most ± this % of the estimate.'],
+  precision: [
+    'Precision (SE/mean)',
+    'Standard error divided by the mean at most D — the ecologists’ convention (0.1 to 0.25).',
+  ],
+  limit: ['Decide against a limit', 'Decide whether the mean or rate is below or above a limit you enter.'],
+});
 
 function Help(props: { children: ComponentChildren }) {
   return <p class="help">{props.children}</p>;
@@ -152,23 +182,11 @@ export function NewStudyScreen(props: { from?: string; mode?: 'duplicate' | 'cha
         {text('name', 'Study name', {
           help: 'Site, unit or lot, and the date — as you would write it on the sample bag.',
         })}
-        {radios('kind', 'Data kind', [
-          [
-            'measurement',
-            'Measurement',
-            'A number with a unit per sample (a concentration, a length, a reading).',
-          ],
-          [
-            'count',
-            'Count per plot',
-            'A whole number per plot, quadrat, trap or transect section; zero counts too.',
-          ],
-          [
-            'pass-fail',
-            'Pass/fail per item',
-            'Each item either has the outcome you count (e.g. a defect) or not.',
-          ],
-        ])}
+        {radios(
+          'kind',
+          'Data kind',
+          DATA_KINDS.map((k) => [k, ...KIND_CHOICES[k]]),
+        )}
         {f.kind === 'measurement' &&
           text('unit', 'Unit', { help: 'Kept with every value, e.g. mg/kg, µg/L, cm.' })}
         {f.kind === 'measurement' &&
@@ -191,20 +209,11 @@ export function NewStudyScreen(props: { from?: string; mode?: 'duplicate' | 'cha
                 ? 'e.g. seedlings, burrows, snails.'
                 : 'The result you count, e.g. “defect”. The other result is “no defect”.',
           })}
-        {radios('targetKind', 'Target: when is it enough?', [
-          ['margin', 'Margin', `The interval is at most ± this much (${pct ? 'percentage points' : unit}).`],
-          ['relative', 'Relative', 'The interval is at most ± this % of the estimate.'],
-          [
-            'precision',
-            'Precision (SE/mean)',
-            'Standard error divided by the mean at most D — the ecologists’ convention (0.1 to 0.25).',
-          ],
-          [
-            'limit',
-            'Decide against a limit',
-            'Decide whether the mean or rate is below or above a limit you enter.',
-          ],
-        ])}
+        {radios(
+          'targetKind',
+          'Target: when is it enough?',
+          TARGET_KINDS.map((k) => [k, ...targetChoices(pct ? 'percentage points' : unit)[k]]),
+        )}
         {text(
           'targetValue',
           f.targetKind === 'relative'
@@ -232,19 +241,11 @@ export function NewStudyScreen(props: { from?: string; mode?: 'duplicate' | 'cha
           ['custom', 'Other', ''],
         ])}
         {f.level === 'custom' && text('customLevel', 'Confidence level', { mode: 'decimal', suffix: '%' })}
-        {radios('rule', 'Stopping rule', [
-          [
-            'standard',
-            'Standard',
-            'Checks after every entry with a correction for looking often; its coverage is measured.',
-          ],
-          ['strict', 'Strict', 'Valid however often you look; usually needs more observations.'],
-          [
-            'sprt',
-            'Limit decision (SPRT)',
-            'Wald’s sequential test: stops as soon as the data show below or above the limit.',
-          ],
-        ])}
+        {radios(
+          'rule',
+          'Stopping rule',
+          RULES.filter((r) => r !== 'naive').map((r) => [r, ...RULE_CHOICES[r]]),
+        )}
         {f.rule === 'sprt' && (
           <fieldset class="choices">
             <legend>SPRT settings</legend>
