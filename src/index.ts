@@ -2,20 +2,26 @@
  * The public face of the pure core — what web/ (and other edges) import. Others may add export lines.
  */
 
-export { type AssessOptions, assess, assessSummary, checkTarget, DEFAULT_MIN, halfWidth } from './assess.ts';
 export {
-  assessDesign,
-  clusterRatioMean,
-  compositeUcl,
-  designEffect,
-  kaplanMeierMean,
-  neymanAllocation,
+  type AssessOptions,
+  assess,
+  checkTarget,
+  DEFAULT_MIN,
+  halfWidth,
+  RunningAssessment,
+  SERIES_MAX,
+  type SeriesPoint,
   type StratumProgress,
   strataProgress,
-  stratifiedMean,
   usesDesign,
-  whereNext,
-} from './design/index.ts';
+} from './assess/index.ts';
+export { clusterRatioMean } from './design/cluster-ratio-mean.ts';
+export { compositeUcl } from './design/composite-ucl.ts';
+export { designEffect } from './design/design-effect.ts';
+export { kaplanMeierMean } from './design/kaplan-meier-mean.ts';
+export { neymanAllocation } from './design/neyman-allocation.ts';
+export { stratifiedMean } from './design/stratified-mean.ts';
+export { whereNext } from './design/where-next.ts';
 export { formatStrata, parseStrata } from './design/strata-spec.ts';
 export type * from './model/records.ts';
 export type * from './model/types.ts';

@@ -55,8 +55,22 @@ export function clusterRatioMean(
   const r = sumY / sumM;
   let ss = 0;
   for (const c of clusters) ss += (c.total - r * c.size) ** 2;
-  const sr2 = ss / (n - 1);
-  const meanSize = sumM / n;
+  return clusterRatioFromSums({ units: n, totalY: sumY, totalM: sumM, residualSS: ss }, populationClusters);
+}
+
+/**
+ * The same estimate from running sums (the phone updates them per entry; see unit-moments.ts): number of
+ * units n ≥ 2, Σy, Σm and the residual sum of squares Σ(yᵢ − R·mᵢ)².
+ */
+export function clusterRatioFromSums(
+  sums: { units: number; totalY: number; totalM: number; residualSS: number },
+  populationClusters?: number,
+): ClusterRatioResult {
+  const n = sums.units;
+  if (n < 2) return { status: 'too-few', clusters: n };
+  const r = sums.totalY / sums.totalM;
+  const sr2 = sums.residualSS / (n - 1);
+  const meanSize = sums.totalM / n;
   const fpc = populationClusters === undefined ? 1 : 1 - n / populationClusters;
   const variance = (fpc * sr2) / (n * meanSize * meanSize);
   return {
@@ -66,7 +80,7 @@ export function clusterRatioMean(
     se: Math.sqrt(variance),
     df: n - 1,
     clusters: n,
-    entries: sumM,
+    entries: sums.totalM,
     meanSize,
   };
 }

@@ -35,7 +35,7 @@ export interface RuleContext {
    */
   verdictOnly?: boolean;
   /**
-   * True only inside replay's per-entry loop (replay-sequence.ts), which needs nothing but whether the
+   * True only inside replay's per-entry loop (src/assess/replay.ts), which needs nothing but whether the
    * rule stops at this entry and recomputes the full assessment where it stops or ends: a `keep going`
    * decision may then carry a placeholder interval, level and message (standard.ts uses it to skip the
    * quantile inversion at a data-dependent level). Implies verdictOnly.

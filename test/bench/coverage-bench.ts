@@ -1,11 +1,11 @@
 /**
  * Coverage benchmark of the stopping rules (`npm run bench:coverage`; a benchmark, not a test).
  *
- * Runs the Monte Carlo grid of the shared METHODS notes §7 through the app's own per-entry path
- * (src/stop/replay-sequence.ts → the data kind's model and guards → decide) and prints, per cell and side
- * by side for the naive rule and every rule offered: realised coverage of the reported interval with its
- * 95 % Monte Carlo margin (1.96·√(c(1−c)/R)), mean n / n*, the 10th/50th/90th percentiles of n, the share
- * stopped at the minimum and the share capped (never stopped before 10·n*); for the limit decision the
+ * Runs a Monte Carlo grid of distributions, oracle sizes and rules (stated in the output) through the app's
+ * own per-entry path (src/assess/replay.ts: the running assessment, verdict only per entry) and prints, per
+ * cell and side by side for the naive rule and every rule offered: realised coverage of the reported interval
+ * with its 95 % Monte Carlo margin (1.96·√(c(1−c)/R)), mean n / n*, the 10th/50th/90th percentiles of n, the
+ * share stopped at the minimum and the share capped (never stopped before 10·n*); for the limit decision the
  * realised error rates at the two ends of the indifference zone and the mean n against Wald's ASN.
  *
  * Common random numbers: replicate r of a cell draws one sequence of 10·n* values from the seed
@@ -20,7 +20,7 @@
 import { writeFileSync } from 'node:fs';
 import type { AnalysisSetup, RuleName } from '../../src/model/types.ts';
 import { normalQuantile } from '../../src/stats/distributions.ts';
-import { replaySequence } from '../../src/stop/replay-sequence.ts';
+import { replaySequence } from '../../src/assess/index.ts';
 import { sprtMaxN, sprtModelOf } from '../../src/stop/sprt.ts';
 import { sprtOperatingCharacteristic } from '../../src/stop/sprt-operating-characteristic.ts';
 import { STANDARD_ALPHA_RATIO, type StandardGroup } from '../../src/stop/standard-level.ts';

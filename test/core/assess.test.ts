@@ -1,9 +1,9 @@
-// assess / assessSummary: guards before any rule, verdicts through the rule seam, "how many more"
-// (METHODS §3.7 worked example, monotone in the target, population cap, smoothing), and equality of the
-// per-entry and batch paths.
+// assess / RunningAssessment: guards before any rule, verdicts through the rule seam, "how many more"
+// (the worked example of src/plan/README.md, monotone in the target, population cap, smoothing), and
+// equality of the per-entry and batch paths.
 import { describe, expect, it } from 'vitest';
-import { assess, assessSummary, checkTarget } from '../../src/assess.ts';
-import type { AnalysisSetup, Assessment, Point } from '../../src/model/types.ts';
+import { assess, checkTarget, RunningAssessment } from '../../src/assess/index.ts';
+import type { AnalysisSetup, Point } from '../../src/model/types.ts';
 import { RunningSummary } from '../../src/stats/running-summary.ts';
 
 const pts = (xs: number[]): Point[] => xs.map((value) => ({ value }));
@@ -97,13 +97,13 @@ describe('verdicts', () => {
 });
 
 describe('how many more', () => {
-  it('METHODS §3.7 example through the core: n = 8, s = 2, d = 1 → likely 10 more, 4–33, assured 14 [derived]', () => {
+  it('Kupper & Hafner (1989) fixed point through the core: n = 8, s = 2, d = 1 → likely 10 more, 4–33, assured 14 [derived]', () => {
     // eight values with sd exactly 2: ±√(7/2)·… built from a symmetric pattern
     const k = Math.sqrt((4 * 7) / 8);
     const xs = [10 - k, 10 + k, 10 - k, 10 + k, 10 - k, 10 + k, 10 - k, 10 + k];
     const s = RunningSummary.of(xs);
     expect(s.sd).toBeCloseTo(2, 12);
-    const a = assessSummary(s, { ...base, min: 8, target: { kind: 'margin', value: 1 } });
+    const a = assess(pts(xs), { ...base, min: 8, target: { kind: 'margin', value: 1 } });
     expect(a.more).toEqual({ likely: 10, low: 4, high: 33, assured: 14 });
   });
   it('monotone in the target: a tighter margin never needs fewer', () => {
@@ -124,40 +124,46 @@ describe('how many more', () => {
     expect(a.more!.likely).toBeLessThanOrEqual(18);
     expect(a.more!.high).toBeLessThanOrEqual(18);
   });
-  it('smoothing: the likely total moves by at most ±50 % per entry, and says so', () => {
-    const s = RunningSummary.of(normal12);
-    const setup = { ...base, target: { kind: 'margin' as const, value: 0.5 } };
-    const prev: Assessment = { ...assessSummary(s, setup), n: 11, more: { likely: 5, low: 3, high: 9 } };
-    const a = assessSummary(s, setup, normal12, { previous: prev });
-    expect(a.n + a.more!.likely).toBeLessThanOrEqual(Math.ceil(16 * 1.5));
-    expect(a.details.moreSmoothed).toBe(true);
-    expect(a.details.moreRawLikely).toBeGreaterThan(a.more!.likely);
+  it('smoothing: the likely total moves by at most ±50 % of the previous raw total per entry, and says so', () => {
+    const xs = [5, 5.2, 4.9, 5.1, 5, 5.05, 4.95, 5.1, 5, 4.9, 5, 9, 5.1, 1, 5, 12, 5, 5.1, 0.5, 5];
+    const setup = { ...base, target: { kind: 'margin' as const, value: 0.4 } };
+    const running = new RunningAssessment(setup);
+    let prevRawTotal: number | null = null;
+    let clamped = 0;
+    for (const x of xs) {
+      const a = running.add({ value: x });
+      if (a.more === null || a.more.atLeast) {
+        prevRawTotal = null;
+        continue;
+      }
+      const total = a.n + a.more.likely;
+      if (prevRawTotal !== null) {
+        expect(total).toBeLessThanOrEqual(Math.ceil(prevRawTotal * 1.5));
+        expect(total).toBeGreaterThanOrEqual(Math.min(a.n, Math.floor(prevRawTotal / 1.5)));
+      }
+      if (a.details.moreSmoothed === true) {
+        clamped++;
+        expect(a.details.moreRawLikely).not.toBe(a.more.likely);
+      }
+      const raw = typeof a.details.moreRawLikely === 'number' ? a.details.moreRawLikely : a.more.likely;
+      prevRawTotal = Math.max(a.n, a.n + raw);
+    }
+    expect(clamped).toBeGreaterThan(1);
   });
-  it('smoothing looks one entry back: assess() equals a full entry-by-entry chain (derived invariant)', () => {
+  it('smoothing looks one entry back: assess() equals the entry-by-entry running chain (derived invariant)', () => {
     // A skewed sequence whose raw projection jumps, so the clamp acts on several consecutive entries.
     const xs = [5, 5.2, 4.9, 5.1, 5, 5.05, 4.95, 5.1, 5, 4.9, 5, 9, 5.1, 1, 5, 12, 5, 5.1, 0.5, 5];
     const setup = { ...base, target: { kind: 'margin' as const, value: 0.4 } };
-    const s = new RunningSummary();
-    const values: number[] = [];
-    let chained: Assessment | null = null;
-    let prev: Assessment | null = null;
-    let clamped = 0;
-    for (const x of xs) {
-      s.add(x);
-      values.push(x);
-      chained = assessSummary(s, setup, values, { previous: prev });
-      if (chained.details.moreSmoothed === true) clamped++;
-      prev = s.n >= setup.min && chained.verdict.status === 'keep going' ? chained : null;
-    }
-    expect(clamped).toBeGreaterThan(1);
-    expect(assess(pts(xs), setup).more).toEqual(chained!.more);
+    const running = new RunningAssessment(setup);
+    for (const x of xs) running.add({ value: x });
+    expect(assess(pts(xs), setup)).toEqual(running.assessment);
   });
   it('more: false skips only the projection; the interval, level and verdict are unchanged', () => {
     for (const rule of ['standard', 'strict', 'naive'] as const) {
       const setup = { ...base, rule, target: { kind: 'margin' as const, value: 0.2 } };
-      const s = RunningSummary.of(normal12);
-      const full = assessSummary(s, setup, normal12);
-      const lean = assessSummary(s, setup, normal12, { more: false });
+      const running = new RunningAssessment(setup, pts(normal12));
+      const full = running.assessment;
+      const lean = running.assessWith({ more: false });
       expect(full.more).not.toBeNull();
       expect(lean.more).toBeNull();
       expect([lean.estimate, lean.lower, lean.upper, lean.level]).toEqual([
@@ -191,11 +197,14 @@ describe('how many more', () => {
 });
 
 describe('per-entry and batch paths agree', () => {
-  it('assessSummary after add/remove equals assess on the remaining points', () => {
-    const s = RunningSummary.of([...normal12, 99]);
-    s.remove(99);
+  it('a running assessment after a void equals assess on the remaining points', () => {
     const setup = { ...base, target: { kind: 'margin' as const, value: 1 } };
-    const a = assessSummary(s, setup);
+    const running = new RunningAssessment(
+      setup,
+      [...pts(normal12), { value: 99 }],
+      [...normal12.map((_, i) => `e${i}`), 'odd'],
+    );
+    const a = running.void('odd');
     const b = assess(pts(normal12), setup);
     expect(a.lower).toBeCloseTo(b.lower!, 10);
     expect(a.upper).toBeCloseTo(b.upper!, 10);

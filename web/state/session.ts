@@ -1,24 +1,18 @@
 /**
- * One open study in memory: its event log, the core's running summary, the current assessment, a
- * downsampled running series for the chart, and the pace. Applying a new entry is O(1) (O(log n) for
- * the pace median); a void removes one point from the summary in O(1) and rebuilds only the chart series.
- * All statistics come from the core (assessSummary); nothing here computes an interval. A session is
- * only constructed after `loadCore()` resolved (see web/core-loader.ts).
+ * One open study in memory: its event log (entries and voids, in seq order) and the core's running
+ * assessment of the entries that still count. The statistics — the assessment, the chart series, the
+ * smoothing of "how many more" — all come from the core's RunningAssessment, the same one the report file,
+ * `sure-enough assess` and `replay` use; this class only files records and tells the core which entry was
+ * added or withdrawn. Adding an entry is O(1) for the data kinds (the pace median O(log n)); a void rebuilds
+ * the running assessment from the counted entries. A session is only constructed after `loadCore()`
+ * resolved (see web/core-loader.ts).
  */
-import type { Assessment, ObservationRecord, Point, RunningSummary } from '../core.ts';
+import type { Assessment, ObservationRecord, Point, RunningAssessment, SeriesPoint } from '../core.ts';
 import { loadedCore } from '../core-loader.ts';
 import type { StoredStudy } from '../storage/schema.ts';
 import { Pace } from './pace.ts';
 
-export interface SeriesPoint {
-  n: number;
-  estimate: number;
-  lower: number;
-  upper: number;
-}
-
-/** The chart keeps at most this many points: when full, every other one is dropped (stride doubles). */
-const SERIES_MAX = 160;
+export type { SeriesPoint } from '../core.ts';
 
 export function pointOf(rec: ObservationRecord): Point {
   const p: Point = { value: rec.value as number };
@@ -33,31 +27,36 @@ export class StudySession {
   /** entry id → the void record that withdrew it. */
   readonly voidOf = new Map<string, ObservationRecord>();
   private readonly byId = new Map<string, ObservationRecord>();
-  private summary: RunningSummary = new (loadedCore().RunningSummary)();
-  /** Counted uncensored values in entry order (the stopping rules may look back). */
-  private values: number[] = [];
-  /** Counted points in entry order, for the design-aware estimates (web/design, issue 7; O(n) per entry). */
-  private points: Point[] = [];
-  /** Some entry is a non-detect or names a primary unit, so the design-aware estimate applies. */
-  private designPoints = false;
-  /** The previous entry's assessment: the core smooths "how many more" one entry back, as `assess` does. */
-  private previous: Assessment | null = null;
-  private stride = 1;
-  series: SeriesPoint[] = [];
+  private running: RunningAssessment;
   readonly pace = new Pace();
-  assessment!: Assessment;
 
   constructor(
     readonly study: StoredStudy,
     records: readonly ObservationRecord[] = [],
   ) {
     for (const r of records) this.ingest(r);
-    this.replay();
+    const counted = this.records.filter(
+      (r) => r.voids === undefined && r.value !== undefined && !this.voidOf.has(r.id),
+    );
+    this.running = new (loadedCore().RunningAssessment)(
+      study.setup,
+      counted.map(pointOf),
+      counted.map((r) => r.id),
+    );
+  }
+
+  get assessment(): Assessment {
+    return this.running.assessment;
+  }
+
+  /** The running chart (the core's series). */
+  get series(): SeriesPoint[] {
+    return this.running.series;
   }
 
   /** Counted entries (not voided). */
   get n(): number {
-    return this.summary.n + this.summary.censored;
+    return this.running.n;
   }
 
   get lastSeq(): number {
@@ -84,7 +83,9 @@ export class StudySession {
     this.byId.set(r.id, r);
     if (r.voids !== undefined) {
       const target = this.byId.get(r.voids);
-      if (!target || this.voidOf.has(r.voids)) return 'ignored';
+      // a second void of one entry (pooled from two phones) is kept in the log; the entry is already out
+      if (!target || target.voids !== undefined || target.value === undefined || this.voidOf.has(r.voids))
+        return 'ignored';
       this.voidOf.set(r.voids, r);
       return 'void';
     }
@@ -93,97 +94,12 @@ export class StudySession {
     return 'entry';
   }
 
-  /** One counted entry through the core, chaining the smoothing as the core's batch `assess` does. O(1). */
-  /** Adds one counted record to the running state. O(1). */
-  private addPoint(summary: RunningSummary, r: ObservationRecord, values: number[]): void {
-    const p = pointOf(r);
-    summary.add(p);
-    if (!p.censored) values.push(p.value);
-    this.points.push(p);
-    if (p.cluster !== undefined || p.censored === true) this.designPoints = true;
-  }
-
-  /** The core's assessment of the entries so far (design-aware when the design applies). */
-  private assessNow(
-    summary: RunningSummary,
-    values: number[],
-    previous: Assessment | null,
-    more = true,
-  ): Assessment {
-    const setup = this.study.setup;
-    const { assessDesign, assessSummary, usesDesign } = loadedCore();
-    return this.designPoints || usesDesign([], setup)
-      ? assessDesign(this.points, setup)
-      : assessSummary(summary, setup, values, { previous, more });
-  }
-
-  /** What the next entry's smoothing may look back to (the core's `assess` applies the same condition). */
-  private remember(a: Assessment, summary: RunningSummary): void {
-    const setup = this.study.setup;
-    if (setup.target !== undefined && summary.n >= setup.min && summary.censored === 0) {
-      this.previous = a.verdict.status === 'keep going' ? a : null;
-    }
-  }
-
-  private step(summary: RunningSummary, r: ObservationRecord, values: number[]): Assessment {
-    this.addPoint(summary, r, values);
-    const a = this.assessNow(summary, values, this.previous);
-    this.remember(a, summary);
-    return a;
-  }
-
   /** Adds a freshly saved record; returns the assessment before it (to detect a verdict change). */
   apply(r: ObservationRecord): Assessment {
-    const before = this.assessment;
+    const before = this.running.assessment;
     const kind = this.ingest(r);
-    if (kind === 'entry') {
-      this.assessment = this.step(this.summary, r, this.values);
-      this.pushSeries(this.assessment);
-    } else if (kind === 'void') this.replay();
+    if (kind === 'entry') this.running.add(pointOf(r), r.id);
+    else if (kind === 'void' && r.voids !== undefined) this.running.void(r.voids);
     return before;
-  }
-
-  private pushSeries(a: Assessment): void {
-    if (a.n % this.stride !== 0 || a.estimate === null || a.lower === null || a.upper === null) return;
-    this.series.push({ n: a.n, estimate: a.estimate, lower: a.lower, upper: a.upper });
-    if (this.series.length > SERIES_MAX) {
-      this.stride *= 2;
-      this.series = this.series.filter((p) => p.n % this.stride === 0);
-    }
-  }
-
-  /**
-   * Rebuilds the running state from the counted entries (on load, and after a void). Adding an entry is
-   * O(1); the core is asked for an assessment only at the chart's points (≤ SERIES_MAX) and at the last two
-   * entries (the smoothed "more" looks one entry back), so opening a study of 5,000 entries costs a few
-   * hundred assessments, not 5,000.
-   */
-  private replay(): void {
-    this.summary = new (loadedCore().RunningSummary)();
-    this.values = [];
-    this.points = [];
-    this.designPoints = false;
-    this.previous = null;
-    this.series = [];
-    this.stride = 1;
-    const counted = this.records.filter(
-      (r) => r.voids === undefined && r.value !== undefined && !this.voidOf.has(r.id),
-    );
-    while (counted.length / this.stride > SERIES_MAX) this.stride *= 2;
-    const last = counted.length - 1;
-    let a: Assessment | null = null;
-    counted.forEach((r, i) => {
-      this.addPoint(this.summary, r, this.values);
-      const n = this.points.length;
-      if (i >= last - 1) {
-        a = this.assessNow(this.summary, this.values, i === last ? this.previous : null);
-        this.remember(a, this.summary);
-        this.pushSeries(a);
-      } else if (n % this.stride === 0) {
-        // a chart point needs the interval only, not the costly projection
-        this.pushSeries(this.assessNow(this.summary, this.values, null, false));
-      }
-    });
-    this.assessment = a ?? this.assessNow(this.summary, this.values, null);
   }
 }

@@ -7,19 +7,19 @@ import type { AnalysisSetup, CountMethod, Sided, Target } from '../../model/type
 import { type CountVarianceModel, countSampleSize } from '../../plan/count-sample-size.ts';
 import { fixedPointSampleSize } from '../../plan/fixed-point-sample-size.ts';
 import { kupperHafnerSampleSize } from '../../plan/kupper-hafner-assurance.ts';
-import { dispersionIndexTest } from '../dispersion-index-test.ts';
-import { garwoodInterval } from '../garwood-poisson-interval.ts';
-import { cachedNormalQuantile } from '../quantile-cache.ts';
-import { quasiPoissonInterval } from '../quasi-poisson-interval.ts';
-import type { RunningSummary } from '../running-summary.ts';
-import { studentTInterval } from '../student-t-interval.ts';
+import { dispersionIndexTest } from '../../stats/dispersion-index-test.ts';
+import { garwoodInterval } from '../../stats/garwood-poisson-interval.ts';
+import { cachedNormalQuantile } from '../../stats/quantile-cache.ts';
+import { quasiPoissonInterval } from '../../stats/quasi-poisson-interval.ts';
+import type { RunningSummary } from '../../stats/running-summary.ts';
+import { studentTInterval } from '../../stats/student-t-interval.ts';
 import {
   type Details,
-  type KindModel,
+  type Estimator,
   type Projection,
   quantileProbability,
   sidedWords,
-} from './kind-model.ts';
+} from '../estimator.ts';
 
 const LABELS: Record<CountMethod, string> = {
   t: 'Student t on the counts',
@@ -27,7 +27,7 @@ const LABELS: Record<CountMethod, string> = {
   'quasi-poisson': 'quasi-Poisson (log scale)',
 };
 
-export function countModel(summary: RunningSummary, setup: AnalysisSetup): KindModel {
+export function countEstimator(summary: RunningSummary, setup: AnalysisSetup): Estimator {
   const n = summary.n;
   const m = summary.mean;
   const total = Math.round(summary.total);
@@ -181,7 +181,7 @@ export function countModel(summary: RunningSummary, setup: AnalysisSetup): KindM
     };
   };
 
-  let guard: KindModel['guard'] = null;
+  let guard: Estimator['guard'] = null;
   if (n >= 1 && total === 0)
     guard = { reason: 'all-zero', message: 'Every count is zero so far; nothing to base a verdict on.' };
   else if (n >= 1 && distinct === 1)

@@ -6,18 +6,18 @@ import type { AnalysisSetup, MeasurementMethod, Sided, Target } from '../../mode
 import { sigmaQuantile as sigmaQ } from '../../plan/chi-square-sigma-limits.ts';
 import { logScaleRelativeSampleSize } from '../../plan/log-scale-relative-sample-size.ts';
 import { projectMeasurement } from '../../plan/measurement-projection.ts';
-import { chebyshevBound } from '../chebyshev-bound.ts';
-import { landInterval } from '../land-interval.ts';
-import { modifiedCoxInterval } from '../modified-cox-interval.ts';
-import type { RunningSummary } from '../running-summary.ts';
-import { studentTInterval } from '../student-t-interval.ts';
+import { chebyshevBound } from '../../stats/chebyshev-bound.ts';
+import { landInterval } from '../../stats/land-interval.ts';
+import { modifiedCoxInterval } from '../../stats/modified-cox-interval.ts';
+import type { RunningSummary } from '../../stats/running-summary.ts';
+import { studentTInterval } from '../../stats/student-t-interval.ts';
 import {
   type Details,
-  type KindModel,
+  type Estimator,
   type Projection,
   quantileProbability,
   sidedWords,
-} from './kind-model.ts';
+} from '../estimator.ts';
 
 const LABELS: Record<MeasurementMethod, string> = {
   t: 'Student t',
@@ -26,7 +26,7 @@ const LABELS: Record<MeasurementMethod, string> = {
   chebyshev: 'Chebyshev (mean and SD)',
 };
 
-export function measurementModel(summary: RunningSummary, setup: AnalysisSetup): KindModel {
+export function measurementEstimator(summary: RunningSummary, setup: AnalysisSetup): Estimator {
   const n = summary.n;
   const mean = summary.mean;
   const sd = summary.sd;
@@ -151,7 +151,7 @@ export function measurementModel(summary: RunningSummary, setup: AnalysisSetup):
     }
   };
 
-  let guard: KindModel['guard'] = null;
+  let guard: Estimator['guard'] = null;
   if (n >= 1 && distinct === 1)
     guard = {
       reason: 'one-distinct-value',

@@ -5,21 +5,21 @@
  */
 import type { AnalysisSetup, PassFailMethod, Sided, Target } from '../../model/types.ts';
 import { proportionSampleSize, zeroAcceptanceSampleSize } from '../../plan/proportion-sample-size.ts';
-import { agrestiCoullInterval } from '../agresti-coull-interval.ts';
-import { clopperPearsonInterval } from '../clopper-pearson-interval.ts';
-import { hypergeometricBounds } from '../hypergeometric-bounds.ts';
-import { jeffreysInterval } from '../jeffreys-interval.ts';
-import { cachedNormalQuantile } from '../quantile-cache.ts';
-import type { RunningSummary } from '../running-summary.ts';
-import { wilsonCcInterval } from '../wilson-cc-interval.ts';
-import { wilsonInterval } from '../wilson-interval.ts';
+import { agrestiCoullInterval } from '../../stats/agresti-coull-interval.ts';
+import { clopperPearsonInterval } from '../../stats/clopper-pearson-interval.ts';
+import { hypergeometricBounds } from '../../stats/hypergeometric-bounds.ts';
+import { jeffreysInterval } from '../../stats/jeffreys-interval.ts';
+import { cachedNormalQuantile } from '../../stats/quantile-cache.ts';
+import type { RunningSummary } from '../../stats/running-summary.ts';
+import { wilsonCcInterval } from '../../stats/wilson-cc-interval.ts';
+import { wilsonInterval } from '../../stats/wilson-interval.ts';
 import {
   type Details,
-  type KindModel,
+  type Estimator,
   type Projection,
   quantileProbability,
   sidedWords,
-} from './kind-model.ts';
+} from '../estimator.ts';
 
 const LABELS: Record<PassFailMethod | 'hypergeometric', string> = {
   wilson: 'Wilson score',
@@ -38,7 +38,7 @@ const FNS = {
   'agresti-coull': agrestiCoullInterval,
 } as const;
 
-export function passFailModel(summary: RunningSummary, setup: AnalysisSetup): KindModel {
+export function passFailEstimator(summary: RunningSummary, setup: AnalysisSetup): Estimator {
   const n = summary.n;
   const x = Math.round(summary.total);
   const lot = setup.population;
@@ -134,7 +134,7 @@ export function passFailModel(summary: RunningSummary, setup: AnalysisSetup): Ki
   // Never `enough` on one outcome only: with every item the same, a margin, relative or precision target
   // says little (Wilson's width at x = 0 shrinks like 1/n whatever the true rate); the decision against a
   // limit stays open — no defect in n items is the zero-acceptance demonstration (METHODS §3.3).
-  let guard: KindModel['guard'] = null;
+  let guard: Estimator['guard'] = null;
   if (n >= 1 && (x === 0 || x === n) && setup.target !== undefined && setup.target.kind !== 'limit')
     guard = {
       reason: 'one-distinct-value',

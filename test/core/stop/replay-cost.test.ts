@@ -8,11 +8,9 @@
  * Evidence: invariants of the implementation (no external numbers needed).
  */
 import { describe, expect, it } from 'vitest';
-import { assessSummary } from '../../../src/assess.ts';
+import { RunningAssessment, replaySequence } from '../../../src/assess/index.ts';
 import type { AnalysisSetup } from '../../../src/model/types.ts';
 import { quantileCacheMisses } from '../../../src/stats/quantile-cache.ts';
-import { RunningSummary } from '../../../src/stats/running-summary.ts';
-import { replaySequence } from '../../../src/stop/replay-sequence.ts';
 import { lognormalVariate } from '../../sim/lognormal-variate.ts';
 import { negativeBinomialVariate } from '../../sim/negative-binomial-variate.ts';
 import { createRng } from '../../sim/xoshiro128.ts';
@@ -53,12 +51,10 @@ describe('replay: quantile inversions per entry (never-stopping sequences)', () 
       // the prefilter; with it only the final full assessment of each sequence (a few) and rare new df
       expect(inversions).toBeLessThan(runs * 8);
       // the prefilter never changes a verdict: the app's per-entry path agrees at every entry of one run
-      const s = new RunningSummary();
-      const seen: number[] = [];
+      const running = new RunningAssessment(c.setup);
       for (const v of seqs[0] as number[]) {
-        s.add(v);
-        seen.push(v);
-        expect(assessSummary(s, c.setup, seen, { projection: false }).verdict.status).toBe('keep going');
+        running.addValue(v);
+        expect(running.assessWith({ projection: false }).verdict.status).toBe('keep going');
       }
     });
 });

@@ -1,8 +1,8 @@
-// assessDesign: dispatch and verdict conventions. Numbers are checked against the estimator files (whose own
+// Design-based estimates through the one pipeline: dispatch and verdict conventions. Numbers are checked against the estimator files (whose own
 // tests carry the published sources) and against scipy where a new figure appears:
 // python3 -c "from scipy import stats; print(stats.t.ppf(0.975, 21.089612008024652))" → 2.0790759231652784
 import { describe, expect, it } from 'vitest';
-import { assessDesign, strataProgress, usesDesign } from '../../../src/design/index.ts';
+import { assess, strataProgress, usesDesign } from '../../../src/assess/index.ts';
 import type { AnalysisSetup, Point } from '../../../src/model/types.ts';
 import { studentTInterval } from '../../../src/stats/student-t-interval.ts';
 import fixture from '../../fixtures/design-stratified.json';
@@ -18,7 +18,7 @@ describe('assessDesign — strata', () => {
     s.values.map((value) => ({ value, stratum: s.name })),
   );
   it('gives the stratified mean with a Satterthwaite t interval (Scheaffer Example 5.1)', () => {
-    const a = assessDesign(points, setup);
+    const a = assess(points, setup);
     expect(a.method).toBe('stratified-t');
     expect(a.estimate).toBeCloseTo(fixture.derived.mean, 12);
     // t(0.975, 21.0896…) from scipy (rel 2e-6 allowed for the jstat quantile)
@@ -29,7 +29,7 @@ describe('assessDesign — strata', () => {
   });
   it('one stratum equals the simple Student t interval', () => {
     const xs = [3.1, 4.7, 2.2, 5.9, 4.4, 3.8];
-    const a = assessDesign(
+    const a = assess(
       xs.map((value) => ({ value, stratum: 'all' })),
       { ...base, strata: [{ name: 'all', weight: 1 }] },
     );
@@ -49,7 +49,7 @@ describe('assessDesign — strata', () => {
         { name: 'meadow', weight: 0.4 },
       ],
     };
-    const a = assessDesign(
+    const a = assess(
       [
         { value: 3, stratum: 'woodland' },
         { value: 4, stratum: 'woodland' },
@@ -71,14 +71,14 @@ describe('assessDesign — strata', () => {
       ...[1, 2, 3, 4].map((value) => ({ value, stratum: 'a' })),
       ...[1, 5, 9, 13].map((value) => ({ value, stratum: 'b' })),
     ];
-    const cheap = assessDesign(pts, {
+    const cheap = assess(pts, {
       ...base,
       strata: [
         { name: 'a', weight: 0.5 },
         { name: 'b', weight: 0.5 },
       ],
     });
-    const dear = assessDesign(pts, {
+    const dear = assess(pts, {
       ...base,
       strata: [
         { name: 'a', weight: 0.5 },
@@ -100,7 +100,7 @@ describe('assessDesign — primary units', () => {
       [6, 6, 7],
     ];
     const pts: Point[] = transects.flatMap((q, i) => q.map((value) => ({ value, cluster: `T${i + 1}` })));
-    const a = assessDesign(pts, { ...base, kind: 'count' });
+    const a = assess(pts, { ...base, kind: 'count' });
     expect(a.method).toBe('cluster-ratio-t');
     expect(a.details.primaryUnits).toBe(5);
     expect(a.details.designEffect as number).toBeGreaterThan(2);
@@ -112,7 +112,7 @@ describe('assessDesign — primary units', () => {
 
 describe('assessDesign — composites', () => {
   it('one composite: no bound, and says so', () => {
-    const a = assessDesign([{ value: 120 }], { ...base, sided: 'upper', design: 'composite' });
+    const a = assess([{ value: 120 }], { ...base, sided: 'upper', design: 'composite' });
     expect(a.upper).toBeNull();
     expect(a.verdict.message).toMatch(/single composite/);
   });
@@ -124,10 +124,10 @@ describe('assessDesign — composites', () => {
       design: 'composite',
       target: { kind: 'limit', value: 250 },
     };
-    const t = assessDesign(pts, s);
+    const t = assess(pts, s);
     expect(t.upper).toBeCloseTo(t.details.tUcl as number, 9);
     expect(t.verdict.status).toBe('below limit');
-    const c = assessDesign(pts, { ...s, method: 'chebyshev' });
+    const c = assess(pts, { ...s, method: 'chebyshev' });
     expect(c.upper).toBeCloseTo(c.details.chebyshevUcl as number, 9);
   });
 });
@@ -142,24 +142,24 @@ describe('assessDesign — non-detects', () => {
     { value: 3.1 },
   ];
   it('Kaplan–Meier by default, with the share of non-detects', () => {
-    const a = assessDesign(some, base);
+    const a = assess(some, base);
     expect(a.method).toBe('kaplan-meier-t');
     expect(a.details.nonDetectShare).toBeCloseTo(2 / 6, 12);
     expect(a.warnings[0]).toMatch(/non-detects \(33 %\)/);
   });
   it('above half non-detects: a mean is not supportable', () => {
     const many: Point[] = [...some, ...[1, 1, 1].map((value) => ({ value, censored: true }))];
-    const a = assessDesign(many, { ...base, target: { kind: 'limit', value: 5 } });
+    const a = assess(many, { ...base, target: { kind: 'limit', value: 5 } });
     expect(a.verdict.status === 'keep going' && a.verdict.reason).toBe('not-supportable');
     expect(a.estimate).toBeNull();
     expect(a.more).toBeNull();
   });
   it('warns when a reporting limit is at or above the decision limit', () => {
-    const a = assessDesign(some, { ...base, target: { kind: 'limit', value: 1.0 } });
+    const a = assess(some, { ...base, target: { kind: 'limit', value: 1.0 } });
     expect(a.warnings.join(' ')).toMatch(/at or above the decision limit/);
   });
   it('half the limit only when chosen, and labelled', () => {
-    const a = assessDesign(some, { ...base, nonDetects: 'half-limit' });
+    const a = assess(some, { ...base, nonDetects: 'half-limit' });
     expect(a.warnings.join(' ')).toMatch(/^SUBSTITUTION|SUBSTITUTION/);
     expect(a.details.substituted).toBe(2);
     expect(a.method).toBe('half-limit-t');

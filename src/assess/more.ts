@@ -1,0 +1,88 @@
+/**
+ * "How many more": the estimator's raw projection of the total entries a target needs, turned into further
+ * entries (likely, 10th–90th percentile range, 80 % assured when the estimator gives it), capped at the
+ * population and smoothed one entry back.
+ *
+ * Smoothing: once n ≥ min, the likely total is clamped to 0.5–1.5 × the previous entry's raw (unclamped)
+ * projected total, so one odd value does not make the figure jump by thousands. The previous entry's raw
+ * total is carried as a typed `MoreMemory`; because the clamp looks at the previous raw figure only, the
+ * result after n entries needs just the assessments at n − 1 and n, whatever n is.
+ */
+import type { AnalysisSetup, More, Sided } from '../model/types.ts';
+import type { Details, Estimator } from './estimator.ts';
+
+/** What the next entry's smoothing looks back to: the raw projected total after `n` entries. */
+export interface MoreMemory {
+  n: number;
+  rawLikelyTotal: number;
+}
+
+const SMOOTH_FACTOR = 1.5;
+
+export interface MoreOutcome {
+  more: More | null;
+  memory: MoreMemory | null;
+}
+
+function reachedWords(setup: AnalysisSetup): string {
+  return setup.population !== undefined ? ` (the population has ${setup.population})` : '';
+}
+
+export function projectMore(
+  estimator: Estimator,
+  setup: AnalysisSetup,
+  min: number,
+  level: number,
+  sided: Sided,
+  n: number,
+  details: Details,
+  warnings: string[],
+  memory: MoreMemory | null,
+): MoreOutcome {
+  const target = setup.target;
+  if (target === undefined) return { more: null, memory: null };
+  const cap = setup.population;
+  if (n < min) {
+    const m = min - n;
+    return { more: { likely: m, low: m, high: m, atLeast: true }, memory: null };
+  }
+  const raw = estimator.project(target, level, sided);
+  if (raw === null) {
+    details.moreUnavailable = 'no projection can be made from these values yet';
+    return { more: null, memory: null };
+  }
+  details.moreBasis = raw.basis;
+  const clampTotal = (x: number): number => (cap === undefined ? x : Math.min(x, cap));
+  let likelyTotal = clampTotal(Math.ceil(raw.likely - 1e-9));
+  let lowTotal = clampTotal(Math.ceil(raw.low - 1e-9));
+  let highTotal = clampTotal(Math.ceil(raw.high - 1e-9));
+  if (!Number.isFinite(likelyTotal)) {
+    details.moreUnavailable = 'the projection is unbounded (the estimate sits on the target)';
+    return { more: null, memory: null };
+  }
+  const next: MoreMemory = { n, rawLikelyTotal: Math.max(n, likelyTotal) };
+  if (memory !== null && memory.n < n && memory.n >= min) {
+    const lo = Math.max(n, Math.floor(memory.rawLikelyTotal / SMOOTH_FACTOR));
+    const hi = Math.ceil(memory.rawLikelyTotal * SMOOTH_FACTOR);
+    const clamped = Math.min(hi, Math.max(lo, likelyTotal));
+    if (clamped !== likelyTotal) {
+      details.moreSmoothed = true;
+      details.moreRawLikely = Math.max(0, likelyTotal - n);
+      likelyTotal = clamped;
+    }
+  }
+  lowTotal = Math.min(lowTotal, likelyTotal);
+  highTotal = Math.max(highTotal, likelyTotal);
+  const more: More = {
+    likely: Math.max(0, likelyTotal - n),
+    low: Math.max(0, lowTotal - n),
+    high: Math.max(0, Number.isFinite(highTotal) ? highTotal - n : Number.MAX_SAFE_INTEGER),
+  };
+  if (raw.assured !== undefined && Number.isFinite(raw.assured))
+    more.assured = Math.max(0, clampTotal(Math.ceil(raw.assured - 1e-9)) - n);
+  if (cap !== undefined && likelyTotal >= cap)
+    warnings.push(`The projection reaches the whole population${reachedWords(setup)}.`);
+  if (setup.max !== undefined && likelyTotal > setup.max)
+    warnings.push(`The projected total (${likelyTotal}) is above the planned maximum of ${setup.max}.`);
+  return { more, memory: next };
+}

@@ -1,0 +1,181 @@
+/**
+ * The one assessment pipeline: an estimator's view of the entries → the verdict ladder → the stopping rule
+ * (src/stop decides; this file hands it a RuleContext) → the result → "how many more". Every data kind and
+ * every field design goes through it, on every surface (phone, report file, `assess`, `replay`).
+ *
+ * The verdict ladder, in order (the first that applies gives `keep going` with its reason):
+ *   1. the estimator cannot support any estimate (`not-supportable`: e.g. more than half non-detects);
+ *   2. fewer entries than the minimum (`below-minimum`; composites need three replicates, not setup.min),
+ *      worded by the design's own shortfall when it has one (a stratum short of two entries…);
+ *   3. the estimator's own guard (one distinct value, zero spread, all-zero counts, a stratum or primary
+ *      unit short of two, a single composite);
+ *   4. no target (`no-target`), or no interval yet (`not-supportable`);
+ *   5. the stopping rule's decision: `enough`, `below limit`, `above limit`, or `target-not-met` /
+ *      `undecided`.
+ * Pass/fail items with one outcome so far never say `enough` for margin, relative or precision targets
+ * (the pass/fail estimator's guard), while a limit may still be decided (zero-acceptance, 1 − α^(1/n)).
+ */
+import type { Interval } from '../model/interval.ts';
+import type { AnalysisSetup, Assessment, More, Verdict } from '../model/types.ts';
+import { decide, type RuleContext } from '../stop/index.ts';
+import type { Estimator } from './estimator.ts';
+import { type MoreMemory, projectMore } from './more.ts';
+import { checkTarget, effectiveSided, halfWidth } from './target.ts';
+
+/** Default minimum number of entries before any verdict other than `keep going`. */
+export const DEFAULT_MIN = 10;
+
+/** The entries so far as the pipeline sees them: the estimator plus what the stopping rules read. */
+export interface Subject {
+  estimator: Estimator;
+  /** Counted entries (non-detects included). */
+  n: number;
+  /** Sufficient statistics some rules need (SPRT on totals or log means, Stein's pilot). */
+  stats: RuleContext['stats'];
+  /** The entries' values in entry order (rules that look back read them); do not mutate. */
+  values: readonly number[];
+}
+
+export interface AssessOptions {
+  /** The previous entry's raw "more" projection, for smoothing (see more.ts). */
+  memory?: MoreMemory | null;
+  /**
+   * False: the caller needs only the verdict (replay, benchmark): skip "how many more" and let the rule skip
+   * its expensive reported interval while the verdict is `keep going`. Default true.
+   */
+  projection?: boolean;
+  /** False: skip "how many more" only, everything else exact (the running chart's points). Default true. */
+  more?: boolean;
+}
+
+export interface PipelineResult {
+  assessment: Assessment;
+  /** What the next entry's smoothing looks back to (null when no projection was made). */
+  memory: MoreMemory | null;
+}
+
+function finiteOrNull(x: number | undefined): number | null {
+  return x !== undefined && Number.isFinite(x) ? x : null;
+}
+
+function keepGoing(reason: Extract<Verdict, { status: 'keep going' }>['reason'], message: string): Verdict {
+  return { status: 'keep going', reason, message };
+}
+
+/** Assesses the subject under a setup that has already passed the setup validator (running.ts checks it). */
+export function runPipeline(
+  subject: Subject,
+  setup: AnalysisSetup,
+  options: AssessOptions = {},
+): PipelineResult {
+  const { estimator, n } = subject;
+  if (setup.population !== undefined && n > setup.population)
+    throw new RangeError('assess requires n <= population');
+  const target = setup.target;
+  const min = estimator.min ?? setup.min;
+  const sided = effectiveSided(setup, estimator.estimate);
+  // details and warnings are built once here and extended in place (copying a dictionary-shaped object
+  // per entry cost ~10× the rest of the per-entry path)
+  const details = estimator.details();
+  const warnings = estimator.warnings();
+  if (target?.kind === 'limit' && setup.sided === 'two') details.sidedChosen = sided;
+
+  let interval: Interval | null = estimator.intervalAt ? estimator.intervalAt(setup.level, sided) : null;
+  let level = setup.level;
+  let ruleLabel: string | null = null;
+  const guard = estimator.guard;
+  let verdict: Verdict;
+  if (guard !== null && guard.reason === 'not-supportable') verdict = keepGoing(guard.reason, guard.message);
+  else if (n < min)
+    // a design's own shortfall (a stratum or primary unit short of two, a single composite) says more
+    verdict =
+      guard?.reason === 'below-minimum'
+        ? keepGoing(guard.reason, guard.message)
+        : keepGoing('below-minimum', `Fewer than the minimum of ${min} entries; no verdict before then.`);
+  else if (guard !== null) verdict = keepGoing(guard.reason, guard.message);
+  else if (target === undefined)
+    verdict = keepGoing('no-target', 'No target set: the interval is shown only.');
+  else if (estimator.intervalAt === null || interval === null)
+    verdict = keepGoing('not-supportable', 'Too few entries for an interval.');
+  else {
+    const ctx: RuleContext = {
+      kind: setup.kind,
+      n,
+      intervalAt: estimator.intervalAt,
+      check: (iv) => checkTarget(target, iv, sided),
+      stats: subject.stats,
+      values: subject.values,
+    };
+    if (options.projection === false) ctx.verdictOnly = true;
+    let ruleSetup: AnalysisSetup = { ...setup, sided };
+    if (setup.rule === 'sprt' && estimator.sprtApplies === false) {
+      ruleSetup = { ...ruleSetup, rule: 'naive' };
+      warnings.push(
+        'The SPRT does not apply to design-based estimates; the interval is checked against the limit instead.',
+      );
+    }
+    const decision = decide(ctx, ruleSetup);
+    interval = decision.interval;
+    level = decision.reportedLevel;
+    ruleLabel = decision.ruleLabel;
+    verdict =
+      decision.status === 'keep going'
+        ? keepGoing(target.kind === 'limit' ? 'undecided' : 'target-not-met', decision.message)
+        : { status: decision.status, message: decision.message };
+  }
+
+  // figures of the reported interval
+  if (interval !== null) {
+    const hw = halfWidth(interval, sided);
+    if (Number.isFinite(hw)) details.halfWidth = hw;
+    if (Number.isFinite(hw) && interval.estimate > 0) details.relativeHalfWidth = hw / interval.estimate;
+    if (interval.se !== undefined) {
+      details.se = interval.se;
+      if (interval.estimate > 0) details.precision = interval.se / interval.estimate;
+    }
+  }
+  if (ruleLabel !== null) details.rule = ruleLabel;
+
+  let more: More | null = null;
+  let memory: MoreMemory | null = null;
+  if (
+    target !== undefined &&
+    verdict.status === 'keep going' &&
+    verdict.reason !== 'not-supportable' &&
+    options.projection !== false &&
+    options.more !== false
+  ) {
+    const out = projectMore(
+      estimator,
+      setup,
+      min,
+      level,
+      sided,
+      n,
+      details,
+      warnings,
+      options.memory ?? null,
+    );
+    more = out.more;
+    memory = out.memory;
+  }
+  if (verdict.status === 'keep going') details.reasonCode = verdict.reason;
+  return {
+    assessment: {
+      kind: setup.kind,
+      n,
+      estimate: finiteOrNull(interval?.estimate ?? estimator.estimate ?? undefined),
+      lower: interval ? finiteOrNull(interval.lower) : null,
+      upper: interval ? finiteOrNull(interval.upper) : null,
+      level,
+      sided,
+      method: estimator.method,
+      methodLabel: estimator.label(level, sided) + (ruleLabel ? `; stopping rule: ${ruleLabel}` : ''),
+      verdict,
+      more,
+      details,
+      warnings,
+    },
+    memory,
+  };
+}
