@@ -28,6 +28,7 @@ async function hostileBundle() {
       kind: 'measurement',
       unit: HOSTILE.unit,
       plotArea: undefined,
+      plotAreaUnit: undefined,
       taxon: undefined,
       target: { kind: 'relative', value: 0.25 },
     },
