@@ -14,6 +14,7 @@
  * @example compositeUcl([10, 12, 14], 0.95) // { status: 'ok', mean: 12, tUcl: 15.371…, chebyshevUcl: 17.034… }
  */
 import { studentTQuantile } from '../stats/distributions.ts';
+import { RunningMoments } from '../stats/running-moments.ts';
 
 export type CompositeUclResult =
   | {
@@ -41,12 +42,8 @@ export function compositeUcl(results: readonly number[], level: number): Composi
           ? 'No composite yet: an upper bound needs replicate composites (typically three).'
           : 'A single composite measures the mean of its increments but says nothing about how much another composite would differ, so it gives no upper bound. Collect replicate composites (typically three).',
     };
-  let mean = 0;
-  for (const x of results) mean += x;
-  mean /= r;
-  let ss = 0;
-  for (const x of results) ss += (x - mean) ** 2;
-  const sd = Math.sqrt(ss / (r - 1));
+  const { mean, m2 } = RunningMoments.of(results);
+  const sd = Math.sqrt(m2 / (r - 1));
   const se = sd / Math.sqrt(r);
   const alpha = 1 - level;
   return {

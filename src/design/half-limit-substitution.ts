@@ -12,6 +12,7 @@
  * @example halfLimitSubstitution([{ value: 1, censored: true }, { value: 2 }, { value: 3 }]) // mean 1.833…
  */
 import type { Point } from '../model/types.ts';
+import { RunningMoments } from '../stats/running-moments.ts';
 
 export type SubstitutionResult =
   | { status: 'ok'; n: number; substituted: number; mean: number; sd: number; se: number }
@@ -24,12 +25,8 @@ export function halfLimitSubstitution(points: readonly Point[]): SubstitutionRes
   });
   const n = xs.length;
   if (n < 2) return { status: 'too-few', n };
-  let mean = 0;
-  for (const x of xs) mean += x;
-  mean /= n;
-  let ss = 0;
-  for (const x of xs) ss += (x - mean) ** 2;
-  const sd = Math.sqrt(ss / (n - 1));
+  const { mean, m2 } = RunningMoments.of(xs);
+  const sd = Math.sqrt(m2 / (n - 1));
   return {
     status: 'ok',
     n,

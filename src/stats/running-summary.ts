@@ -3,8 +3,9 @@
  * added or removed, so the interval can be recomputed after every entry without rereading the data.
  *
  * Source: Welford BP (1962) Note on a method for calculating corrected sums of squares and products,
- * Technometrics 4:419–420 (the running mean / sum of squared deviations); removal is the same update
- * run backwards (Chan, Golub & LeVeque 1983, Am Stat 37:242–247, give the pairwise/updating forms).
+ * Technometrics 4:419–420 (the running mean / sum of squared deviations, in running-moments.ts, kept
+ * for the values and for their logarithms); removal is the same update run backwards (Chan, Golub &
+ * LeVeque 1983, Am Stat 37:242–247).
  * Preconditions: values are finite numbers; `remove` must be given a value that was added.
  * Returns: n, mean, sample variance (divisor n − 1), the same moments of ln(x) over the positive values,
  * the counts of zeros / negatives / censored points, the total, and the number of distinct values.
@@ -14,18 +15,13 @@
  * const s = new RunningSummary(); for (const v of [2, 4, 4, 5]) s.add(v); s.mean // 3.75, s.sd // 1.258…
  */
 import type { Point } from '../model/types.ts';
+import { RunningMoments } from './running-moments.ts';
 
 export class RunningSummary {
-  /** Number of uncensored observations in the moments. */
-  n = 0;
-  mean = 0;
-  /** Sum of squared deviations from the mean. */
-  m2 = 0;
+  /** Moments of the uncensored values, and of ln(x) over the positive ones. */
+  private readonly raw = new RunningMoments();
+  private readonly log = new RunningMoments();
   total = 0;
-  /** Number of values > 0 (the log moments run over these). */
-  positive = 0;
-  logMean = 0;
-  logM2 = 0;
   zeros = 0;
   negative = 0;
   /** Censored points (`<RL`), kept out of the moments; their reporting limits are in `censoredValues`. */
@@ -33,6 +29,27 @@ export class RunningSummary {
   censoredValues: number[] = [];
   private readonly counts = new Map<number, number>();
 
+  /** Number of uncensored observations in the moments. */
+  get n(): number {
+    return this.raw.n;
+  }
+  get mean(): number {
+    return this.raw.mean;
+  }
+  /** Sum of squared deviations from the mean. */
+  get m2(): number {
+    return this.raw.m2;
+  }
+  /** Number of values > 0 (the log moments run over these). */
+  get positive(): number {
+    return this.log.n;
+  }
+  get logMean(): number {
+    return this.log.mean;
+  }
+  get logM2(): number {
+    return this.log.m2;
+  }
   /** Number of distinct uncensored values. */
   get distinct(): number {
     return this.counts.size;
@@ -58,18 +75,10 @@ export class RunningSummary {
       this.censoredValues.push(x);
       return this;
     }
-    this.n++;
-    const d = x - this.mean;
-    this.mean += d / this.n;
-    this.m2 += d * (x - this.mean);
+    this.raw.add(x);
     this.total += x;
-    if (x > 0) {
-      const y = Math.log(x);
-      this.positive++;
-      const dy = y - this.logMean;
-      this.logMean += dy / this.positive;
-      this.logM2 += dy * (y - this.logMean);
-    } else if (x === 0) this.zeros++;
+    if (x > 0) this.log.add(Math.log(x));
+    else if (x === 0) this.zeros++;
     else this.negative++;
     this.counts.set(x, (this.counts.get(x) ?? 0) + 1);
     return this;
@@ -89,41 +98,17 @@ export class RunningSummary {
     if (c === undefined) throw new RangeError('RunningSummary.remove requires a value that was added');
     if (c === 1) this.counts.delete(x);
     else this.counts.set(x, c - 1);
-    if (this.n === 1) {
-      this.n = 0;
-      this.mean = 0;
-      this.m2 = 0;
-      this.total = 0;
-    } else {
-      const oldMean = this.mean;
-      this.mean = (this.n * oldMean - x) / (this.n - 1);
-      this.m2 = Math.max(0, this.m2 - (x - oldMean) * (x - this.mean));
-      this.n--;
-      this.total -= x;
-    }
-    if (x > 0) {
-      const y = Math.log(x);
-      if (this.positive === 1) {
-        this.positive = 0;
-        this.logMean = 0;
-        this.logM2 = 0;
-      } else {
-        const old = this.logMean;
-        this.logMean = (this.positive * old - y) / (this.positive - 1);
-        this.logM2 = Math.max(0, this.logM2 - (y - old) * (y - this.logMean));
-        this.positive--;
-      }
-    } else if (x === 0) this.zeros--;
+    this.raw.remove(x);
+    // The total restarts at exactly 0 when the last value goes, rather than keeping a rounding residue.
+    this.total = this.raw.n === 0 ? 0 : this.total - x;
+    if (x > 0) this.log.remove(Math.log(x));
+    else if (x === 0) this.zeros--;
     else this.negative--;
     // With one distinct value left the spread is exactly zero; clear the rounding residue of removals.
     if (this.counts.size === 1) {
-      this.m2 = 0;
       const only = this.counts.keys().next().value as number;
-      this.mean = only;
-      if (only > 0) {
-        this.logMean = Math.log(only);
-        this.logM2 = 0;
-      }
+      this.raw.settle(only);
+      if (only > 0) this.log.settle(Math.log(only));
     }
     return this;
   }

@@ -15,19 +15,12 @@
  */
 import type { AnalysisSetup } from '../model/types.ts';
 import type { RuleContext, RuleDecision } from './rule-context.ts';
-import { statusOf } from './status-of.ts';
+import { decideOn } from './status-of.ts';
 
 export function naiveRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
   const interval = ctx.intervalAt(setup.level, setup.sided);
-  const status = statusOf(ctx.check(interval));
-  return {
-    status,
-    interval,
-    reportedLevel: setup.level,
-    message:
-      status === 'keep going'
-        ? 'The interval does not meet the target yet.'
-        : 'The interval meets the target (no correction for looking after every entry).',
-    ruleLabel: 'naive (no correction for looking after every entry)',
-  };
+  return decideOn(ctx, interval, setup.level, 'naive (no correction for looking after every entry)', {
+    keepGoing: 'The interval does not meet the target yet.',
+    met: 'The interval meets the target (no correction for looking after every entry).',
+  });
 }

@@ -32,7 +32,7 @@ import { greenStopLine } from './green-stop-line.ts';
 import { kunoStopLine } from './kuno-stop-line.ts';
 import type { Interval, RuleContext, RuleDecision } from './rule-context.ts';
 import { STANDARD_ALPHA_RATIO, standardGroup, standardLevel } from './standard-level.ts';
-import { statusOf } from './status-of.ts';
+import { decideOn, statusOf } from './status-of.ts';
 
 /** Chow–Robbins count-unit floor c (squared count units per plot). */
 export const COUNT_UNIT_FLOOR = 1;
@@ -120,17 +120,9 @@ export function standardRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecisi
         ruleLabel: `${label}, fixed-precision stop line`,
       };
   }
-  const status = statusOf(ctx.check(interval));
-  return {
-    status,
-    interval,
-    reportedLevel: level,
-    message:
-      status === 'keep going'
-        ? 'The interval does not meet the target yet.'
-        : status === 'enough'
-          ? 'The interval meets the target.'
-          : 'The bound is on one side of the limit (descriptive: use the limit decision for a tested answer).',
-    ruleLabel: label,
-  };
+  return decideOn(ctx, interval, level, label, {
+    keepGoing: 'The interval does not meet the target yet.',
+    met: 'The interval meets the target.',
+    limit: 'The bound is on one side of the limit (descriptive: use the limit decision for a tested answer).',
+  });
 }

@@ -32,7 +32,7 @@ import { cachedStudentTQuantile } from '../stats/quantile-cache.ts';
 import { betaBinomialConfidenceSequence } from './beta-binomial-confidence-sequence.ts';
 import { pilotStats } from './pilot-stats.ts';
 import type { Interval, RuleContext, RuleDecision } from './rule-context.ts';
-import { statusOf } from './status-of.ts';
+import { decideOn, statusOf } from './status-of.ts';
 import { steinTwoStage } from './stein-two-stage.ts';
 
 /** Placeholder interval of a stop-only `keep going` decision (never shown). */
@@ -128,17 +128,10 @@ function passFail(ctx: RuleContext, setup: AnalysisSetup, label: string): RuleDe
     lower: setup.sided === 'upper' ? Number.NEGATIVE_INFINITY : cs.lower,
     upper: setup.sided === 'lower' ? Number.POSITIVE_INFINITY : cs.upper,
   };
-  const status = statusOf(ctx.check(interval));
-  return {
-    status,
-    interval,
-    reportedLevel: setup.level,
-    message:
-      status === 'keep going'
-        ? 'The interval valid at every entry does not meet the target yet.'
-        : 'The interval valid at every entry meets the target.',
-    ruleLabel: label,
-  };
+  return decideOn(ctx, interval, setup.level, label, {
+    keepGoing: 'The interval valid at every entry does not meet the target yet.',
+    met: 'The interval valid at every entry meets the target.',
+  });
 }
 
 export function strictRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
