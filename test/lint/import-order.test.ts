@@ -144,16 +144,12 @@ describe('import order written in DEVELOPERS.md, enforced by Biome', () => {
   });
 });
 
-// Files the lead is replacing in the pipeline refactor (issue 11) still carry back-imports; every other
-// file in the repository must already pass.
-const MID_REFACTOR = new Set(['src/stop/replay-sequence.ts']);
-
 describe('the repository itself', () => {
-  it('has no back-import or stray jstat import outside the files being replaced', () => {
+  it('has no back-import and no stray jstat import', () => {
     const { diagnostics } = lint(root, ['src', 'web', 'test', 'e2e']);
     const found = diagnostics
-      .filter((d) => d.category === RULE && !MID_REFACTOR.has(d.location.path))
-      .map((d) => d.location.path);
+      .filter((d) => d.category === RULE)
+      .map((d) => `${d.location.path}: ${d.message}`);
     expect(found).toEqual([]);
   });
 });
