@@ -503,7 +503,7 @@ const CASES: Case[] = [
 function withOverrides<T extends object>(base: T, over: object): T {
   const out: Record<string, unknown> = { ...base, ...over };
   for (const [k, v] of Object.entries(out)) if (v === undefined) delete out[k];
-  return out as T;
+  return out as unknown as T;
 }
 
 function argv(base: Record<string, string>, over: Record<string, string | null>): string[] {
