@@ -501,7 +501,7 @@ const CASES: Case[] = [
 ];
 
 function withOverrides<T extends object>(base: T, over: object): T {
-  const out: Record<string, unknown> = { ...base, ...over };
+  const out = { ...base, ...over } as Record<string, unknown>;
   for (const [k, v] of Object.entries(out)) if (v === undefined) delete out[k];
   return out as unknown as T;
 }
