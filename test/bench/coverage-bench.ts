@@ -18,9 +18,9 @@
  * --calibrate (scan the standard rule's α ratio per data kind instead of the grid).
  */
 import { writeFileSync } from 'node:fs';
+import { replaySequence } from '../../src/assess/index.ts';
 import type { AnalysisSetup, RuleName } from '../../src/model/types.ts';
 import { normalQuantile } from '../../src/stats/distributions.ts';
-import { replaySequence } from '../../src/assess/index.ts';
 import { sprtMaxN, sprtModelOf } from '../../src/stop/sprt.ts';
 import { sprtOperatingCharacteristic } from '../../src/stop/sprt-operating-characteristic.ts';
 import { STANDARD_ALPHA_RATIO, type StandardGroup } from '../../src/stop/standard-level.ts';
