@@ -18,12 +18,12 @@ import type { MoreMemory } from './more.ts';
 import { type AssessOptions, runPipeline } from './pipeline.ts';
 import { subjectOf } from './subject.ts';
 
-/** One point of the running chart: the interval after n counted entries. */
+/** One point of the running chart: the interval after n counted entries (null: that side is unbounded). */
 export interface SeriesPoint {
   n: number;
   estimate: number;
-  lower: number;
-  upper: number;
+  lower: number | null;
+  upper: number | null;
 }
 
 /** The chart keeps at most this many points: when full, every other one is dropped (the stride doubles). */
@@ -127,7 +127,7 @@ export class RunningAssessment {
   }
 
   private pushSeries(a: Assessment): void {
-    if (a.estimate === null || a.lower === null || a.upper === null) {
+    if (a.estimate === null || (a.lower === null && a.upper === null)) {
       if (a.n === this.entries.length) this.latest = null;
       return;
     }

@@ -1,13 +1,15 @@
 /**
  * `sure-enough replay [FILE|-]`: for each recorded or simulated sequence (JSON lines `{"values":[...]}`),
  * where the stopping rule stops and the interval it reports there (src/cli/README.md, "Output"). One JSON
- * line out per input line: `{"stoppedAt":N|null,"estimate":…,"lower":…,"upper":…,"verdict":…}` — stoppedAt is the first
- * n with a verdict other than `keep going`, or null with the summary at the end of the sequence.
+ * line out per input line: `{"stoppedAt":N|null,"estimate":…,"lower":…,"upper":…,"verdict":…}` —
+ * stoppedAt is the first n with a verdict other than `keep going`, or null with the summary at the end of
+ * the sequence.
  * Study flags as for `assess` (src/cli/study-flags.ts), `--rule naive|standard|strict|sprt`.
  * Blank lines and lines starting with `#` are skipped (no output line). Any bad line → exit 2 naming it.
  */
+
+import { type PassFailMemo, replaySequence } from '../assess/index.ts';
 import type { AnalysisSetup } from '../model/types.ts';
-import { type PassFailMemo, replaySequence } from '../stop/replay-sequence.ts';
 import { type ParsedArgs, readInput, UsageError } from './io.ts';
 import { parseStudyFlags, STUDY_FLAGS } from './study-flags.ts';
 

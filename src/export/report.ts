@@ -7,21 +7,18 @@
  * commands that reproduce the numbers (recipe.ts: `sure-enough export --format values` then
  * `sure-enough assess` with the study's flags, strata, design and non-detect method included).
  *
- * The running-interval chart uses the same assessment as the result: the design-aware estimate (stratified
- * mean, primary units, composites, Kaplan–Meier) from the first entry at which the study's design applies,
- * the simple running estimate otherwise — so its last point is the reported interval.
+ * The result and the running-interval chart come from the one running assessment of src/assess (the phone's
+ * own), so its last point is the reported interval.
  *
  * Every figure, unit, level, target and verdict is worded by src/words, as on the phone's screens (pass/fail
  * in percent of items); the page's HTML pieces (escaping, rows, style, chart) are in report-page.ts.
  * Everything typed by a user (study name, notes, units, labels, device names, reasons) is HTML-escaped there.
  */
-import { assess, assessSummary } from '../assess.ts';
+import { assess, RunningAssessment } from '../assess/index.ts';
 import { type Bundle, eventLogHash } from '../bundle/bundle.ts';
 import { collectorShares, countedEntries, likelyDuplicates, logCounts, pointsOf } from '../bundle/events.ts';
-import { assessDesign } from '../design/index.ts';
 import type { StudySetup } from '../model/records.ts';
 import type { Assessment } from '../model/types.ts';
-import { RunningSummary } from '../stats/running-summary.ts';
 import {
   CAUTIONS,
   confidenceWords,
@@ -121,32 +118,13 @@ function estimatorWords(a: Assessment, setup: StudySetup): string {
 }
 
 /**
- * Running interval after each counted entry (at most ~200 points, evenly spread, always the last), by the
- * same assessment as the result: design-aware (src/design) once the study's design applies to the entries
- * so far (declared strata or composites; any entry with a primary unit or below a reporting limit), the
- * simple per-entry assessment before that.
+ * The running interval for the chart: the series of the same running assessment the phone keeps (at most
+ * SERIES_MAX points, evenly spread, always ending at the last entry), so the chart's last point is the
+ * reported interval and the report's chart is the phone's.
  */
 export function runningInterval(bundle: Bundle): ChartPoint[] {
-  const setup = bundle.study.setup;
-  const points = pointsOf(bundle.events);
-  const step = Math.max(1, Math.ceil(points.length / 200));
-  const summary = new RunningSummary();
-  const values: number[] = [];
-  const out: ChartPoint[] = [];
-  // the same test as usesDesign (src/design/index.ts), kept incrementally
-  let design = (setup.strata !== undefined && setup.strata.length > 0) || setup.design === 'composite';
-  points.forEach((p, i) => {
-    summary.add(p);
-    if (!p.censored) values.push(p.value);
-    if (p.cluster !== undefined || p.censored === true) design = true;
-    const n = i + 1;
-    if (n % step !== 0 && n !== points.length) return;
-    const a = design
-      ? assessDesign(points.slice(0, n), setup)
-      : assessSummary(summary, setup, values, { projection: false });
-    out.push({ n, estimate: a.estimate, lower: a.lower, upper: a.upper });
-  });
-  return out;
+  const running = new RunningAssessment(bundle.study.setup, pointsOf(bundle.events));
+  return running.series.map((p) => ({ n: p.n, estimate: p.estimate, lower: p.lower, upper: p.upper }));
 }
 
 /** The report page (HTML5 text); asynchronous because of the event-log hash (the platform's SHA-256). */

@@ -25,8 +25,11 @@ function nice(x: number, step: number): string {
   return fixed(x, decimalsFor(step));
 }
 
+/** A chart point with both sides bounded (a two-sided interval). */
+type BandPoint = SeriesPoint & { lower: number; upper: number };
 export function Chart({ series, current, target, scale, label }: ChartProps) {
-  const pts = series.filter((p) => Number.isFinite(p.lower) && Number.isFinite(p.upper));
+  // a one-sided bound (the other side null) is not drawn as a band here
+  const pts = series.filter((p): p is BandPoint => p.lower !== null && p.upper !== null);
   const last = pts.at(-1);
   if (!last || pts.length < 2) {
     return (
@@ -63,7 +66,7 @@ export function Chart({ series, current, target, scale, label }: ChartProps) {
   const x = (v: number) => PAD.l + ((v - 1) / (xMax - 1)) * (W - PAD.l - PAD.r);
   const y = (v: number) =>
     PAD.t + (1 - (Math.min(hi, Math.max(lo, v)) - lo) / (hi - lo)) * (H - PAD.t - PAD.b);
-  const line = (f: (p: SeriesPoint) => number) =>
+  const line = (f: (p: BandPoint) => number) =>
     pts.map((p, i) => `${i ? 'L' : 'M'}${x(p.n).toFixed(1)},${y(f(p)).toFixed(1)}`).join('');
   const area = `${line((p) => p.upper)}${[...pts]
     .reverse()
