@@ -60,14 +60,6 @@ for (const [i, from] of order.entries()) {
       bad: j > i,
     });
   }
-  // The one-file twin of the pipeline folder (src/assess.ts) counts as the assess folder.
-  const a = order.indexOf('assess');
-  if (from !== 'assess')
-    fixtures.push({
-      path: `src/${from}/imports-assess-file.ts`,
-      source: importer('../assess.ts'),
-      bad: a > i,
-    });
 }
 // Deeper files count too: a subfolder of src/model importing src/stats two levels up.
 fixtures.push({
