@@ -1,7 +1,7 @@
 /**
- * The contract between the fixed-n statistics (src/assess.ts) and the stopping rules (src/stop/).
+ * The contract between the pipeline's fixed-n statistics (src/assess/) and the stopping rules (src/stop/).
  *
- * assess() first applies the guards every rule shares (minimum n, zero spread, one distinct value,
+ * The pipeline (src/assess/pipeline.ts) first applies the guards every rule shares (minimum n, zero spread, one distinct value,
  * all-zero counts; see the Verdict reasons in src/model/types.ts). Only when they pass does it call
  * `decide`, handing over a RuleContext that can compute the data kind's interval at any level.
  * The rule chooses the level it checks and reports (standard: a calibrated inflated level; strict: a
