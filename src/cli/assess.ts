@@ -1,6 +1,6 @@
 /**
  * `sure-enough assess [FILE|-]`: reads values (one per line, or a CSV with a `value` column), assesses them
- * with the same core the app uses (src/assess.ts) and prints one JSON object (src/cli/README.md, "Output").
+ * with the same core the app uses (src/assess/) and prints one JSON object (src/cli/README.md, "Output").
  */
 import { assess } from '../assess/index.ts';
 import { parseValues } from '../validate/parse-values.ts';
