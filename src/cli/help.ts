@@ -50,7 +50,7 @@ const STUDY_FLAGS_TEXT = `Study flags (assess, bundle, replay):
 
 Field designs (see Input for the stratum and primary-unit columns):
   --strata "NAME:W,NAME:W"
-                       at least two declared strata with weights (area share, hectares or number of units;
+                       declared strata with weights (area share, hectares or number of units;
                        rescaled to sum to 1), e.g. --strata "woodland:0.6,meadow:0.4". The estimate is the
                        stratified mean (Cochran 1977 ch. 5) with a Student t interval on Satterthwaite's
                        effective df; every

@@ -21,8 +21,8 @@
  * - planning coefficients are for counts only; Taylor's a and b (Taylor 1961, Nature 189:732) go together,
  *   with a > 0 and 0 < b ≤ 5 (b is usually between 1 and 3; the bound only catches a slip); Iwao's α and β (Iwao 1968)
  *   go together, with α > −1 as Kuno's stop line (Kuno 1969) requires;
- * - strata: at least two (one stratum is the unstratified design), distinct non-empty names, weight > 0,
- *   effort > 0; a composite design is not combined with strata (Cochran 1977, Sampling Techniques, ch. 5);
+ * - strata: at least one (a single stratum gives the unstratified mean, a useful check), distinct
+ *   non-empty names, weight > 0, effort > 0; a composite design is not combined with strata (Cochran 1977, Sampling Techniques, ch. 5);
  * - non-detects and the reporting limit for measurements only; the plot area for counts only.
  */
 import type { StudySetup } from './records.ts';
@@ -142,7 +142,7 @@ const oneOf = (xs: readonly string[]) =>
 export function setupPath(prefix: string, path: string): string {
   if (path === '') return prefix;
   if (prefix === '') return path;
-  return path.startsWith('[') ? `${prefix}${path}` : `${prefix}.${path}`;
+  return `${prefix}.${path}`;
 }
 
 class Problems {
@@ -337,7 +337,7 @@ function checkStrata(p: Problems, strata: unknown): boolean {
     p.add('strata', `must be a list, got ${show(strata)}`);
     return true;
   }
-  if (strata.length < 2) p.add('strata', 'must declare at least two strata (leave them out for none)');
+  if (strata.length === 0) p.add('strata', 'must declare at least one stratum (leave them out for none)');
   const names = new Set<string>();
   strata.forEach((st: unknown, i) => {
     const w = `strata[${i}]`;

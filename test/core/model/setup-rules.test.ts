@@ -413,7 +413,7 @@ const CASES: Case[] = [
       field: null,
     },
   },
-  // Cochran 1977 ch. 5: a stratified mean needs two strata or more, weights > 0, one name each
+  // Cochran 1977 ch. 5: stratum weights > 0, one name each (one stratum gives the unstratified mean)
   {
     rule: 'composite design with strata',
     base: 'm',
@@ -434,17 +434,12 @@ const CASES: Case[] = [
     },
   },
   {
-    rule: 'one stratum',
+    rule: 'one stratum (the unstratified mean)',
     base: 'm',
     form: { strata: 'woodland:1' },
     flags: { strata: 'woodland:1' },
     setup: { strata: [{ name: 'woodland', weight: 1 }] },
-    refused: {
-      path: 'strata',
-      message: 'must declare at least two strata (leave them out for none)',
-      flag: 'strata',
-      field: 'strata',
-    },
+    input: '1,woodland\n2,woodland\n',
   },
   {
     rule: 'stratum weight 0',

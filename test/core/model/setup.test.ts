@@ -132,7 +132,7 @@ describe('refusals name the field path', () => {
     ['Taylor b of 0', { planning: { taylorA: 1.8, taylorB: 0 } }, ['planning.taylorB']],
     // Kuno 1969 stop line: Iwao's α > −1 [secondary]
     ['Iwao α of −1', { planning: { iwaoAlpha: -1, iwaoBeta: 1 } }, ['planning.iwaoAlpha']],
-    ['one stratum', { strata: [{ name: 'all', weight: 1 }] }, ['strata']],
+    ['an empty list of strata', { strata: [] }, ['strata']],
     [
       'strata: empty name, zero weight, repeated name, unknown member',
       {
