@@ -53,9 +53,8 @@ Field designs (see Input for the stratum and primary-unit columns):
                        declared strata with weights (area share, hectares or number of units;
                        rescaled to sum to 1), e.g. --strata "woodland:0.6,meadow:0.4". The estimate is the
                        stratified mean (Cochran 1977 ch. 5) with a Student t interval on Satterthwaite's
-                       effective df; every
-                       stratum needs two entries (or two primary units) first. details.whereNext names the
-                       stratum where one more entry narrows the interval most per unit of effort (with
+                       effective df; every stratum needs two entries (or two primary units) first.
+                       details.whereNext names the stratum where one more entry narrows the interval most per unit of effort (with
                        details.whereNextMessage) and details["stratum.NAME.n" / ".mean" / ".sd"] the progress.
                        Use ; between strata to write weights with a decimal comma.
   --cost "NAME:C,..."  effort of one entry per stratum (minutes, money; default 1), used by "where next"
