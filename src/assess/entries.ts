@@ -9,8 +9,10 @@
  * Entries are only ever added here: a void or a correction rebuilds the state from the counted entries
  * (running.ts), so nothing is ever subtracted from a float sum.
  */
+import { type ClusterRatioResult, clusterRatioFromSums } from '../design/cluster-ratio-mean.ts';
 import { UnitMoments } from '../design/unit-moments.ts';
 import type { AnalysisSetup, Point } from '../model/types.ts';
+import { RunningMoments } from '../stats/running-moments.ts';
 import { RunningSummary } from '../stats/running-summary.ts';
 
 /** Primary units (transects, rooms) of one group: the whole study, or one stratum. */
@@ -47,6 +49,16 @@ export class UnitGroup {
   get namedUnits(): number {
     return this.units.size;
   }
+
+  /** The ratio mean over the units (each entry without a unit is a unit of its own). */
+  ratio(): ClusterRatioResult {
+    return clusterRatioFromSums({
+      units: this.moments.units,
+      totalY: this.totalY,
+      totalM: this.totalM,
+      residualSS: this.moments.residualSumOfSquares(),
+    });
+  }
 }
 
 /** One declared stratum's running state. */
@@ -59,22 +71,6 @@ export class StratumState {
   ) {}
 }
 
-/** Welford moments of plain numbers, without the distinct-value bookkeeping of RunningSummary. */
-class Moments {
-  n = 0;
-  mean = 0;
-  m2 = 0;
-  add(x: number): void {
-    this.n++;
-    const d = x - this.mean;
-    this.mean += d / this.n;
-    this.m2 += d * (x - this.mean);
-  }
-  get sd(): number {
-    return this.n < 2 ? 0 : Math.sqrt(Math.max(0, this.m2) / (this.n - 1));
-  }
-}
-
 export class EntryState {
   /** The data kind's summary over the detected values (non-detects are counted in `censored` only). */
   readonly summary = new RunningSummary();
@@ -84,7 +80,7 @@ export class EntryState {
   readonly points: Point[] = [];
   /** Values of `points` in entry order, non-detects at their reporting limit (the design rules' context). */
   readonly pointValues: number[] = [];
-  readonly pointMoments = new Moments();
+  readonly pointMoments = new RunningMoments();
   /** Primary units over the whole study. */
   readonly units = new UnitGroup();
   /** Declared strata, in declared order (empty when the study has none). */
@@ -114,6 +110,12 @@ export class EntryState {
   /** Counted entries (non-detects included). */
   get n(): number {
     return this.points.length;
+  }
+
+  /** Sample SD of `pointValues` (0 below two entries). */
+  get pointSd(): number {
+    const m = this.pointMoments;
+    return m.n < 2 ? 0 : Math.sqrt(Math.max(0, m.m2) / (m.n - 1));
   }
 
   /** The hot path of replay: a plain detected value, no stratum, no primary unit. */

@@ -58,6 +58,14 @@ export interface Estimator {
   sprtApplies?: boolean;
 }
 
+/** The guard of a data kind whose entries so far all hold one value: no spread to judge. */
+export function oneValueGuard(what: 'value' | 'count'): Guard {
+  return {
+    reason: 'one-distinct-value',
+    message: `Every ${what} is the same; the spread cannot be judged yet.`,
+  };
+}
+
 export function quantileProbability(level: number, sided: Sided): number {
   return sided === 'two' ? 1 - (1 - level) / 2 : level;
 }

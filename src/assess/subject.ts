@@ -100,7 +100,13 @@ export function subjectOf(state: EntryState, setup: AnalysisSetup): Subject {
   return {
     estimator,
     n: state.n,
-    stats: { total: m.mean * m.n, mean: chosen.estimate ?? m.mean, sd: m.sd, logMean: null, logSd: null },
+    stats: {
+      total: m.mean * m.n,
+      mean: chosen.estimate ?? m.mean,
+      sd: state.pointSd,
+      logMean: null,
+      logSd: null,
+    },
     values: state.pointValues,
   };
 }

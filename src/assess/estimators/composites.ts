@@ -7,7 +7,7 @@ import { compositeUcl } from '../../design/composite-ucl.ts';
 import type { AnalysisSetup, Sided } from '../../model/types.ts';
 import type { EntryState } from '../entries.ts';
 import { type Details, sidedWords } from '../estimator.ts';
-import { type DesignFigures, designEstimator, keepGoingGuard } from './design-interval.ts';
+import { type DesignBase, withEstimate, withoutEstimate } from './design-interval.ts';
 
 /** Replicate composites needed before a verdict (ITRC ISM: typically three), unless `min` is smaller. */
 export const COMPOSITE_MIN = 3;
@@ -22,7 +22,7 @@ export function compositesEstimator(state: EntryState, setup: AnalysisSetup) {
     warnings.push(
       'Replicate composites give an upper bound on the mean (incremental-sampling practice); the interval shown follows the chosen sidedness but rests on very few replicates.',
     );
-  const base = {
+  const base: DesignBase = {
     method: chebyshev ? 'composite-chebyshev' : 'composite-t',
     label: (level: number, sided: Sided) =>
       `${chebyshev ? 'Chebyshev' : 'Student t'} bound from ${values.length} replicate composite${values.length === 1 ? '' : 's'}, ${sidedWords(level, sided)}`,
@@ -34,31 +34,12 @@ export function compositesEstimator(state: EntryState, setup: AnalysisSetup) {
     details,
     warnings,
   };
-  let figures: DesignFigures;
-  if (r.status === 'no-bound')
-    figures = {
-      ...base,
-      estimate: values[0] ?? null,
-      se: null,
-      df: null,
-      guard: keepGoingGuard('below-minimum', r.message),
-    };
-  else {
-    details.tUcl = r.tUcl;
-    details.chebyshevUcl = r.chebyshevUcl;
-    figures = {
-      ...base,
-      estimate: r.mean,
-      se: r.se,
-      df: r.replicates - 1,
-      guard:
-        r.se === 0
-          ? keepGoingGuard(
-              'zero-spread',
-              'The replicate composites agree exactly; no bound can be estimated from them.',
-            )
-          : null,
-    };
-  }
-  return designEstimator(figures);
+  if (r.status === 'no-bound') return withoutEstimate(base, 'below-minimum', r.message, values[0] ?? null);
+  details.tUcl = r.tUcl;
+  details.chebyshevUcl = r.chebyshevUcl;
+  return withEstimate(
+    base,
+    { estimate: r.mean, se: r.se, df: r.replicates - 1 },
+    'The replicate composites agree exactly; no bound can be estimated from them.',
+  );
 }

@@ -13,13 +13,8 @@ import { cachedNormalQuantile } from '../../stats/quantile-cache.ts';
 import { quasiPoissonInterval } from '../../stats/quasi-poisson-interval.ts';
 import type { RunningSummary } from '../../stats/running-summary.ts';
 import { studentTInterval } from '../../stats/student-t-interval.ts';
-import {
-  type Details,
-  type Estimator,
-  type Projection,
-  quantileProbability,
-  sidedWords,
-} from '../estimator.ts';
+import type { Details, Estimator, Projection } from '../estimator.ts';
+import { oneValueGuard, quantileProbability, sidedWords } from '../estimator.ts';
 
 const LABELS: Record<CountMethod, string> = {
   t: 'Student t on the counts',
@@ -184,11 +179,7 @@ export function countEstimator(summary: RunningSummary, setup: AnalysisSetup): E
   let guard: Estimator['guard'] = null;
   if (n >= 1 && total === 0)
     guard = { reason: 'all-zero', message: 'Every count is zero so far; nothing to base a verdict on.' };
-  else if (n >= 1 && distinct === 1)
-    guard = {
-      reason: 'one-distinct-value',
-      message: 'Every count is the same; the spread cannot be judged yet.',
-    };
+  else if (n >= 1 && distinct === 1) guard = oneValueGuard('count');
 
   return {
     method,

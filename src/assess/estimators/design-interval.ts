@@ -36,6 +36,33 @@ export function keepGoingGuard(reason: Guard['reason'], message: string): Guard 
   return { reason, message };
 }
 
+/** What every design estimate has before its figures: names, replicates, details and warnings. */
+export type DesignBase = Omit<DesignFigures, 'estimate' | 'se' | 'df' | 'guard'>;
+
+/** A design that cannot estimate yet: no interval, and why. */
+export function withoutEstimate(
+  base: DesignBase,
+  reason: Guard['reason'],
+  message: string,
+  estimate: number | null = null,
+): Estimator {
+  return designEstimator({ ...base, estimate, se: null, df: null, guard: keepGoingGuard(reason, message) });
+}
+
+/** A design's estimate; a zero SE (or no df) keeps it from a verdict with `zeroSpread` as the reason. */
+export function withEstimate(
+  base: DesignBase,
+  figures: { estimate: number; se: number; df: number | null },
+  zeroSpread: string,
+): Estimator {
+  const flat = figures.df === null || figures.se === 0;
+  return designEstimator({
+    ...base,
+    ...figures,
+    guard: flat ? keepGoingGuard('zero-spread', zeroSpread) : null,
+  });
+}
+
 function intervalOf(f: DesignFigures, level: number, sided: Sided): Interval {
   const est = f.estimate as number;
   const se = f.se as number;

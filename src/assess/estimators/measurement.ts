@@ -11,13 +11,8 @@ import { landInterval } from '../../stats/land-interval.ts';
 import { modifiedCoxInterval } from '../../stats/modified-cox-interval.ts';
 import type { RunningSummary } from '../../stats/running-summary.ts';
 import { studentTInterval } from '../../stats/student-t-interval.ts';
-import {
-  type Details,
-  type Estimator,
-  type Projection,
-  quantileProbability,
-  sidedWords,
-} from '../estimator.ts';
+import type { Details, Estimator, Projection } from '../estimator.ts';
+import { oneValueGuard, quantileProbability, sidedWords } from '../estimator.ts';
 
 const LABELS: Record<MeasurementMethod, string> = {
   t: 'Student t',
@@ -152,11 +147,7 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
   };
 
   let guard: Estimator['guard'] = null;
-  if (n >= 1 && distinct === 1)
-    guard = {
-      reason: 'one-distinct-value',
-      message: 'Every value is the same; the spread cannot be judged yet.',
-    };
+  if (n >= 1 && distinct === 1) guard = oneValueGuard('value');
   else if (n >= 2 && !(sd > 1e-12 * Math.max(1, Math.abs(mean))))
     guard = {
       reason: 'zero-spread',

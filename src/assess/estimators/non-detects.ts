@@ -10,7 +10,7 @@ import { kaplanMeierMean } from '../../design/kaplan-meier-mean.ts';
 import type { AnalysisSetup, Sided } from '../../model/types.ts';
 import type { EntryState } from '../entries.ts';
 import { type Details, sidedWords } from '../estimator.ts';
-import { type DesignFigures, designEstimator, keepGoingGuard } from './design-interval.ts';
+import { type DesignBase, withEstimate, withoutEstimate } from './design-interval.ts';
 
 /** Share of non-detects above which a mean is not supportable. */
 export const MAX_NON_DETECT_SHARE = 0.5;
@@ -27,7 +27,7 @@ export function nonDetectsEstimator(state: EntryState, setup: AnalysisSetup) {
   const warnings: string[] = substituted
     ? []
     : [`${r.nonDetects} of ${r.n} results are non-detects (${pct(r.share)}).`];
-  const base = {
+  const base: DesignBase = {
     method: substituted ? 'half-limit-t' : 'kaplan-meier-t',
     label: (level: number, sided: Sided) =>
       substituted
@@ -39,63 +39,42 @@ export function nonDetectsEstimator(state: EntryState, setup: AnalysisSetup) {
     details,
     warnings,
   };
-  let figures: DesignFigures;
   if (r.share > MAX_NON_DETECT_SHARE)
-    figures = {
-      ...base,
-      estimate: null,
-      se: null,
-      df: null,
-      guard: keepGoingGuard(
-        'not-supportable',
-        `More than half the results are non-detects (${pct(r.share)}): a mean is not supportable. Report the share of detects, or compare the individual results with the limit.`,
-      ),
-    };
-  else if (r.status === 'too-few')
-    figures = {
-      ...base,
-      estimate: null,
-      se: null,
-      df: null,
-      guard: keepGoingGuard(
-        'below-minimum',
-        'At least two detected results are needed for a Kaplan–Meier mean.',
-      ),
-    };
-  else {
-    details.kmSd = r.sd;
-    details.sd = r.sdSample;
-    figures = {
-      ...base,
-      estimate: r.mean,
-      se: r.se,
-      df: r.n - 1,
-      guard:
-        r.se === 0
-          ? keepGoingGuard('zero-spread', 'All detected results are equal; no interval can be given.')
-          : null,
-    };
-  }
-  return designEstimator(figures);
+    return withoutEstimate(
+      base,
+      'not-supportable',
+      `More than half the results are non-detects (${pct(r.share)}): a mean is not supportable. Report the share of detects, or compare the individual results with the limit.`,
+    );
+  if (r.status === 'too-few')
+    return withoutEstimate(
+      base,
+      'below-minimum',
+      'At least two detected results are needed for a Kaplan–Meier mean.',
+    );
+  details.kmSd = r.sd;
+  details.sd = r.sdSample;
+  return withEstimate(
+    base,
+    { estimate: r.mean, se: r.se, df: r.n - 1 },
+    'All detected results are equal; no interval can be given.',
+  );
 }
 
 /** Non-detects inside strata, primary units or composites: no estimate in this version. */
 export function notSupportedEstimator(state: EntryState) {
   const km = kaplanMeierMean(state.points);
-  return designEstimator({
+  const base: DesignBase = {
     method: 'not-supported',
     label: () => 'Non-detects within strata, primary units or composites',
-    estimate: null,
-    se: null,
-    df: null,
     replicates: state.n,
     entriesPerReplicate: 1,
     n: state.n,
-    guard: keepGoingGuard(
-      'not-supportable',
-      'Non-detects inside strata, primary units or composites are not supported by this version: no estimate is given. The half-limit substitution (if a regulation prescribes it) or an analysis by a statistician are the alternatives.',
-    ),
     details: { nonDetects: km.nonDetects, nonDetectShare: km.share },
     warnings: [],
-  });
+  };
+  return withoutEstimate(
+    base,
+    'not-supportable',
+    'Non-detects inside strata, primary units or composites are not supported by this version: no estimate is given. The half-limit substitution (if a regulation prescribes it) or an analysis by a statistician are the alternatives.',
+  );
 }

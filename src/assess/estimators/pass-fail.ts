@@ -13,13 +13,8 @@ import { cachedNormalQuantile } from '../../stats/quantile-cache.ts';
 import type { RunningSummary } from '../../stats/running-summary.ts';
 import { wilsonCcInterval } from '../../stats/wilson-cc-interval.ts';
 import { wilsonInterval } from '../../stats/wilson-interval.ts';
-import {
-  type Details,
-  type Estimator,
-  type Projection,
-  quantileProbability,
-  sidedWords,
-} from '../estimator.ts';
+import type { Details, Estimator, Projection } from '../estimator.ts';
+import { quantileProbability, sidedWords } from '../estimator.ts';
 
 const LABELS: Record<PassFailMethod | 'hypergeometric', string> = {
   wilson: 'Wilson score',
@@ -133,7 +128,8 @@ export function passFailEstimator(summary: RunningSummary, setup: AnalysisSetup)
 
   // Never `enough` on one outcome only: with every item the same, a margin, relative or precision target
   // says little (Wilson's width at x = 0 shrinks like 1/n whatever the true rate); the decision against a
-  // limit stays open — no defect in n items is the zero-acceptance demonstration (METHODS §3.3).
+  // limit stays open — no defect in n items is the zero-acceptance demonstration (the exact bound
+  // 1 − α^(1/n); Hanley & Lippman-Hand 1983, "If nothing goes wrong, is everything all right?", JAMA 249).
   let guard: Estimator['guard'] = null;
   if (n >= 1 && (x === 0 || x === n) && setup.target !== undefined && setup.target.kind !== 'limit')
     guard = {

@@ -5,12 +5,11 @@
  * entries as independent would understate the uncertainty (Kish 1965, Survey Sampling, §8.2). Reads the
  * running unit moments: O(1) per entry.
  */
-import { clusterRatioFromSums } from '../../design/cluster-ratio-mean.ts';
 import { designEffect } from '../../design/design-effect.ts';
 import type { AnalysisSetup, Sided } from '../../model/types.ts';
 import type { EntryState } from '../entries.ts';
 import { type Details, sidedWords } from '../estimator.ts';
-import { type DesignFigures, designEstimator, keepGoingGuard } from './design-interval.ts';
+import { type DesignBase, withEstimate, withoutEstimate } from './design-interval.ts';
 
 export function primaryUnitsEstimator(state: EntryState, setup: AnalysisSetup) {
   void setup;
@@ -23,13 +22,8 @@ export function primaryUnitsEstimator(state: EntryState, setup: AnalysisSetup) {
       `${loose} entr${loose === 1 ? 'y has' : 'ies have'} no primary unit and ${loose === 1 ? 'counts' : 'count'} as a unit of ${loose === 1 ? 'its' : 'their'} own.`,
     );
   const units = state.units.moments.units;
-  const r = clusterRatioFromSums({
-    units,
-    totalY: state.units.totalY,
-    totalM: state.units.totalM,
-    residualSS: state.units.moments.residualSumOfSquares(),
-  });
-  const base = {
+  const r = state.units.ratio();
+  const base: DesignBase = {
     method: 'cluster-ratio-t',
     label: (level: number, sided: Sided) =>
       `Ratio mean over primary units (Cochran ch. 9), Student t with units − 1 df, ${sidedWords(level, sided)}`,
@@ -40,51 +34,37 @@ export function primaryUnitsEstimator(state: EntryState, setup: AnalysisSetup) {
     warnings,
   };
   details.primaryUnits = units;
-  let figures: DesignFigures;
   if (r.status === 'too-few')
-    figures = {
-      ...base,
-      estimate: null,
-      se: null,
-      df: null,
-      guard: keepGoingGuard(
-        'below-minimum',
-        'At least two primary units (transects, rooms) are needed: the units, not the entries, are the replicates.',
-      ),
-    };
-  else {
-    details.meanUnitSize = r.meanSize;
-    const elementSd = state.pointMoments.sd;
-    const elementVariance = elementSd * elementSd;
-    if (elementVariance > 0 && n >= 2) {
-      const d = designEffect({
-        clusterVariance: r.variance,
-        elementVariance,
-        entries: n,
-        meanSize: r.meanSize,
-      });
-      details.designEffect = d.deff;
-      details.effectiveN = d.effectiveN;
-      if (d.rho !== null) details.intraclassCorrelation = d.rho;
-      if (d.deff > 1.05)
-        warnings.push(
-          `Entries on one primary unit are not independent: treating the ${n} entries as independent would understate the uncertainty (design effect ${d.deff.toFixed(2)}; they are worth about ${d.effectiveN === null ? '—' : d.effectiveN.toFixed(1)} independent entries). The interval uses the ${units} primary units as replicates.`,
-        );
-    }
-    if (units < 10)
+    return withoutEstimate(
+      base,
+      'below-minimum',
+      'At least two primary units (transects, rooms) are needed: the units, not the entries, are the replicates.',
+    );
+  details.meanUnitSize = r.meanSize;
+  const elementSd = state.pointSd;
+  const elementVariance = elementSd * elementSd;
+  if (elementVariance > 0 && n >= 2) {
+    const d = designEffect({
+      clusterVariance: r.variance,
+      elementVariance,
+      entries: n,
+      meanSize: r.meanSize,
+    });
+    details.designEffect = d.deff;
+    details.effectiveN = d.effectiveN;
+    if (d.rho !== null) details.intraclassCorrelation = d.rho;
+    if (d.deff > 1.05)
       warnings.push(
-        `Only ${units} primary units: the ratio estimate and its variance are rough below about 20 units.`,
+        `Entries on one primary unit are not independent: treating the ${n} entries as independent would understate the uncertainty (design effect ${d.deff.toFixed(2)}; they are worth about ${d.effectiveN === null ? '—' : d.effectiveN.toFixed(1)} independent entries). The interval uses the ${units} primary units as replicates.`,
       );
-    figures = {
-      ...base,
-      estimate: r.mean,
-      se: r.se,
-      df: r.df,
-      guard:
-        r.se === 0
-          ? keepGoingGuard('zero-spread', 'The primary units do not differ yet; no interval can be given.')
-          : null,
-    };
   }
-  return designEstimator(figures);
+  if (units < 10)
+    warnings.push(
+      `Only ${units} primary units: the ratio estimate and its variance are rough below about 20 units.`,
+    );
+  return withEstimate(
+    base,
+    { estimate: r.mean, se: r.se, df: r.df },
+    'The primary units do not differ yet; no interval can be given.',
+  );
 }

@@ -4,14 +4,13 @@
  * interval most for its effort). When entries carry primary units, each stratum's units are its replicates
  * (ratio mean over units, Cochran ch. 9). Reads the running state: O(strata) per entry.
  */
-import { clusterRatioFromSums } from '../../design/cluster-ratio-mean.ts';
 import { type StratumSummary, stratifiedMean } from '../../design/stratified-mean.ts';
 import { type WhereNextStratum, whereNext } from '../../design/where-next.ts';
 import type { AnalysisSetup, Sided } from '../../model/types.ts';
 import type { EntryState, StratumState } from '../entries.ts';
 import type { Details } from '../estimator.ts';
 import { sidedWords } from '../estimator.ts';
-import { type DesignFigures, designEstimator, keepGoingGuard } from './design-interval.ts';
+import { type DesignBase, withEstimate, withoutEstimate } from './design-interval.ts';
 
 function checkStrata(setup: AnalysisSetup): void {
   const names = new Set<string>();
@@ -28,12 +27,7 @@ function checkStrata(setup: AnalysisSetup): void {
 function summaryOf(s: StratumState, byUnits: boolean, population: number | undefined): StratumSummary {
   if (byUnits) {
     const units = s.units.moments.units;
-    const r = clusterRatioFromSums({
-      units,
-      totalY: s.units.totalY,
-      totalM: s.units.totalM,
-      residualSS: s.units.moments.residualSumOfSquares(),
-    });
+    const r = s.units.ratio();
     return {
       name: s.name,
       weight: s.weight,
@@ -101,7 +95,7 @@ export function stratifiedEstimator(state: EntryState, setup: AnalysisSetup) {
   details.strata = declared.length;
   const r = stratifiedMean(summaries);
   const unitWord = byUnits ? 'primary units' : 'entries';
-  const base = {
+  const base: DesignBase = {
     method: 'stratified-t',
     label: (level: number, sided: Sided) =>
       `Stratified mean (Cochran), Student t with Satterthwaite df${byUnits ? ', primary units as replicates' : ''}, ${sidedWords(level, sided)}`,
@@ -111,30 +105,16 @@ export function stratifiedEstimator(state: EntryState, setup: AnalysisSetup) {
     details,
     warnings,
   };
-  let figures: DesignFigures;
   if (r.status === 'too-few')
-    figures = {
-      ...base,
-      estimate: null,
-      se: null,
-      df: null,
-      guard: keepGoingGuard(
-        'below-minimum',
-        `Every stratum needs at least two ${unitWord} before the stratified interval can be given; still short: ${r.strata.join(', ')}.`,
-      ),
-    };
-  else {
-    details.df = r.df;
-    figures = {
-      ...base,
-      estimate: r.mean,
-      se: r.se,
-      df: r.df,
-      guard:
-        r.df === null
-          ? keepGoingGuard('zero-spread', 'No stratum shows any spread yet; no interval can be given.')
-          : null,
-    };
-  }
-  return designEstimator(figures);
+    return withoutEstimate(
+      base,
+      'below-minimum',
+      `Every stratum needs at least two ${unitWord} before the stratified interval can be given; still short: ${r.strata.join(', ')}.`,
+    );
+  details.df = r.df;
+  return withEstimate(
+    base,
+    { estimate: r.mean, se: r.se, df: r.df },
+    'No stratum shows any spread yet; no interval can be given.',
+  );
 }
