@@ -351,9 +351,11 @@ function checkStrata(p: Problems, strata: unknown): boolean {
     else if (st.name.trim() === '') p.add(`${w}.name`, 'must not be empty');
     else if (names.has(st.name)) p.add(`${w}.name`, `"${st.name}" is listed twice`);
     else names.add(st.name);
-    p.number(`${w}.weight`, st.weight, { required: true, test: (n) => n > 0, rule: ABOVE_0 });
-    p.number(`${w}.cost`, st.cost, { test: (n) => n > 0, rule: ABOVE_0 });
-    p.number(`${w}.population`, st.population, { test: isWhole, rule: WHOLE });
+    // the command line and the form show the strata as one text: the message names the stratum
+    const of = typeof st.name === 'string' && st.name.trim() !== '' ? ` (stratum "${st.name}")` : '';
+    p.number(`${w}.weight`, st.weight, { required: true, test: (n) => n > 0, rule: ABOVE_0 + of });
+    p.number(`${w}.cost`, st.cost, { test: (n) => n > 0, rule: ABOVE_0 + of });
+    p.number(`${w}.population`, st.population, { test: isWhole, rule: WHOLE + of });
   });
   return true;
 }

@@ -261,7 +261,7 @@ describe('setup members added for strata and designs', () => {
     bad.checksum.value = await bundleChecksum(bad.study, bad.events);
     const p = await problemsOf(JSON.stringify(bad));
     expect(p).toEqual([
-      'study.setup.strata[0].weight: must be greater than 0',
+      'study.setup.strata[0].weight: must be greater than 0 (stratum "wet")',
       'study.setup.strata[1].colour: unknown field (not part of a study setup)',
       'study.setup.strata[1].name: "wet" is listed twice',
       'study.setup.design: must be composite, got "grid"',

@@ -452,7 +452,12 @@ const CASES: Case[] = [
         { name: 'b', weight: 1 },
       ],
     },
-    refused: { path: 'strata[0].weight', message: ABOVE_0, flag: 'strata', field: 'strata' },
+    refused: {
+      path: 'strata[0].weight',
+      message: 'must be greater than 0 (stratum "a")',
+      flag: 'strata',
+      field: 'strata',
+    },
   },
   {
     rule: 'stratum named twice',
@@ -478,7 +483,12 @@ const CASES: Case[] = [
         { name: 'b', weight: 1, cost: 0 },
       ],
     },
-    refused: { path: 'strata[1].cost', message: ABOVE_0, flag: 'cost', field: 'strataCosts' },
+    refused: {
+      path: 'strata[1].cost',
+      message: 'must be greater than 0 (stratum "b")',
+      flag: 'cost',
+      field: 'strataCosts',
+    },
   },
   {
     rule: 'two strata',
