@@ -3,7 +3,6 @@
  * Everything else from src/ is reached through ./core-loader.ts.
  */
 export { formatStrata, parseStrata } from '../src/design/strata-spec.ts';
-export * from '../src/words/index.ts';
 export {
   DATA_KINDS,
   RULES,
@@ -12,3 +11,4 @@ export {
   setupProblems,
   TARGET_KINDS,
 } from '../src/model/setup.ts';
+export * from '../src/words/index.ts';
