@@ -57,6 +57,7 @@ const SETUP_MEMBERS: Record<keyof StudySetup, true> = {
   taxon: true,
   samplingProtocol: true,
   reportingLimit: true,
+  ...{ decimalSeparator: true, expectedRange: true, positionWarnM: true, otherOutcomeName: true },
 };
 const STUDY_MEMBERS: Record<keyof StudyRecord, true> = {
   id: true,

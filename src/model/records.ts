@@ -27,6 +27,17 @@ export interface StudySetup extends AnalysisSetup {
   samplingProtocol?: string;
   /** Reporting limit of the laboratory (measurements with non-detects), in `unit`. */
   reportingLimit?: number;
+  /** How the study writes numbers: its decimal separator on every screen (absent: the phone's locale). */
+  decimalSeparator?: '.' | ',';
+  /**
+   * Values the crew expects, in `unit` (measurements, counts per plot): a value outside is questioned
+   * before it is saved, never refused. Either end may be left open.
+   */
+  expectedRange?: { low?: number; high?: number };
+  /** Position accuracy (metres) above which an entry's position is saved with a warning (default 30). */
+  positionWarnM?: number;
+  /** Pass/fail: the other result in the crew's words ("latches"); absent: "no " + `outcomeName`. */
+  otherOutcomeName?: string;
 }
 
 /** One study: created once; a changed setup is a new version that `supersedes` the old record's id. */

@@ -105,6 +105,10 @@ const SETUP_MEMBERS: Record<keyof StudySetup, true> = {
   taxon: true,
   samplingProtocol: true,
   reportingLimit: true,
+  decimalSeparator: true,
+  expectedRange: true,
+  positionWarnM: true,
+  otherOutcomeName: true,
 };
 export const SETUP_KEYS: readonly (keyof StudySetup)[] = Object.keys(SETUP_MEMBERS) as (keyof StudySetup)[];
 const TARGET_KEYS = ['kind', 'value'];
@@ -112,7 +116,14 @@ const LIMIT_KEYS = ['kind', 'value', 'source', 'date'];
 const SPRT_KEYS = ['alpha', 'beta', 'lowerBound', 'upperBound', 'maxN'];
 const PLANNING_KEYS = ['negBinomialK', 'taylorA', 'taylorB', 'iwaoAlpha', 'iwaoBeta'];
 const STRATUM_KEYS = ['name', 'weight', 'cost', 'population'];
-const TEXT_FIELDS = ['unit', 'plotAreaUnit', 'outcomeName', 'taxon', 'samplingProtocol'] as const;
+const TEXT_FIELDS = [
+  'unit',
+  'plotAreaUnit',
+  'outcomeName',
+  'otherOutcomeName',
+  'taxon',
+  'samplingProtocol',
+] as const;
 
 /** One problem: the field path inside the setup (`sprt.alpha`, `strata[2].weight`; '' = the setup itself). */
 export interface SetupProblem {
@@ -244,7 +255,23 @@ export function setupProblems(value: unknown): SetupProblem[] {
     kind !== 'measurement'
   )
     p.add('reportingLimit', 'applies to measurements only');
+  if (typeof s.otherOutcomeName === 'string' && kind && kind !== 'pass-fail')
+    p.add('otherOutcomeName', 'applies to pass/fail only');
+  p.choice('decimalSeparator', s.decimalSeparator, ['.', ','], false);
+  p.number('positionWarnM', s.positionWarnM, { test: (n) => n > 0, rule: ABOVE_0 });
+  checkRange(p, s.expectedRange, kind);
   return p.list;
+}
+
+/** The expected range: numbers, low below high, for measurements and counts (a pass/fail item is 0 or 1). */
+function checkRange(p: Problems, r: unknown, kind: DataKind | undefined): void {
+  if (r === undefined) return;
+  if (!isObj(r)) return p.add('expectedRange', `must be an object, got ${show(r)}`);
+  p.unknownKeys('expectedRange', r, ['low', 'high']);
+  if (kind === 'pass-fail') p.add('expectedRange', 'applies to measurements and counts only');
+  const lo = p.number('expectedRange.low', r.low);
+  if (p.number('expectedRange.high', r.high) && lo && !((r.low as number) < (r.high as number)))
+    p.add('expectedRange.high', 'must be above the expected lowest value');
 }
 
 function checkTarget(p: Problems, t: unknown, kind: DataKind | undefined): Target | undefined {
