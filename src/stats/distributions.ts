@@ -51,10 +51,23 @@ export function studentTCdf(x: number, df: number): number {
   if (df > T_NORMAL_SWITCH_DF) return normalCdf(x);
   return jStat.studentt.cdf(x, df);
 }
+/**
+ * Above this many degrees of freedom the chi-square quantile is Wilson & Hilferty's cube-root normal
+ * approximation (1931, "The distribution of chi-square", PNAS 17:684–688): ν(1 − 2/(9ν) + z·√(2/(9ν)))³.
+ * Measured against scipy.stats.chi2.ppf, its error is below 1e-7 of the distance to the mean at ν ≥ 2e6 for
+ * 0.005 ≤ p ≤ 0.999, falling as 1/ν; jstat's iterative inversion there takes seconds per call and drifts by
+ * a quarter of the interval's half-width at ν = 2e10 (the exact Poisson interval for totals of 1e10).
+ */
+const CHI_SQUARE_CUBE_ROOT_DF = 2e6;
+
 /** Chi-square p-quantile (left tail: chiSquareQuantile(0.05, 1) = 0.00393). */
 export function chiSquareQuantile(p: number, df: number): number {
   const q = requireProbability('chiSquareQuantile', p);
   requirePositive('chiSquareQuantile', 'df', df);
+  if (df > CHI_SQUARE_CUBE_ROOT_DF) {
+    const c = 2 / (9 * df);
+    return df * (1 - c + normalQuantile(q) * Math.sqrt(c)) ** 3;
+  }
   return jStat.chisquare.inv(q, df);
 }
 /** Chi-square cdf, from the regularised lower incomplete gamma. */

@@ -215,3 +215,30 @@ describe('per-entry and batch paths agree', () => {
     expect(() => assess(pts(normal12), { ...base, population: 5 })).toThrow(RangeError);
   });
 });
+
+describe('pass/fail with one outcome only: the exact one-sided bound on the open side', () => {
+  // 59 conforming items out of 59: the one-sided 95 % lower bound is 0.05^(1/59) = 0.9504924 — the
+  // "59 samples" rule of nonparametric tolerance limits (Wilks 1941, Ann. Math. Stat. 12:91–96; the same
+  // figure as the one-sided Clopper–Pearson bound) [memory; derived: python3 -c "print(0.05**(1/59))"]
+  it('all 59 items counted, lower bound: α^(1/n) = 0.9504924', () => {
+    const a = assess(
+      Array.from({ length: 59 }, () => ({ value: 1 })),
+      { ...base, kind: 'pass-fail', sided: 'lower', target: { kind: 'limit', value: 0.9 } },
+    );
+    expect(a.lower).toBeCloseTo(0.05 ** (1 / 59), 12);
+    expect(Math.abs(a.lower! - 0.9504924)).toBeLessThan(1e-7);
+    expect(a.verdict.status).toBe('above limit');
+  });
+  it('mirrors nothing counted with an upper bound: 1 − α^(1/n)', () => {
+    const none = assess(
+      Array.from({ length: 59 }, () => ({ value: 0 })),
+      { ...base, kind: 'pass-fail', sided: 'upper', target: { kind: 'limit', value: 0.1 } },
+    );
+    const all = assess(
+      Array.from({ length: 59 }, () => ({ value: 1 })),
+      { ...base, kind: 'pass-fail', sided: 'lower', target: { kind: 'limit', value: 0.9 } },
+    );
+    expect(none.upper).toBeCloseTo(1 - all.lower!, 14);
+    expect(none.method).toBe(all.method);
+  });
+});

@@ -59,8 +59,10 @@ export function passFailEstimator(summary: RunningSummary, setup: AnalysisSetup)
     }
     return details;
   };
-  // one-sided upper bound with nothing counted: the exact bound 1 − α^{1/n} (= Clopper–Pearson one-sided)
-  const zeroExact = (sided: Sided) => lot === undefined && x === 0 && sided === 'upper';
+  // one outcome only, bounded on the side away from it: the exact bound — 1 − α^{1/n} above nothing counted,
+  // α^{1/n} below everything counted (= Clopper–Pearson one-sided, by the symmetry x → n − x)
+  const zeroExact = (sided: Sided) =>
+    lot === undefined && ((x === 0 && sided === 'upper') || (x === n && sided === 'lower'));
   let labelMethod = method;
   const fpc = lot === undefined ? 1 : Math.sqrt(Math.max(0, (lot - n) / Math.max(1, lot - 1)));
   // the SE (Agresti–Coull, two-sided at the level asked) depends only on the level: kept for the last level
@@ -72,7 +74,7 @@ export function passFailEstimator(summary: RunningSummary, setup: AnalysisSetup)
       : (level: number, sided: Sided) => {
           let r: { estimate: number; lower: number; upper: number };
           if (method === 'hypergeometric') r = hypergeometricBounds(x, n, lot as number, level, sided);
-          else if (zeroExact(sided)) r = clopperPearsonInterval(0, n, level, 'upper');
+          else if (zeroExact(sided)) r = clopperPearsonInterval(x, n, level, sided);
           else r = FNS[method](x, n, level, sided);
           if (level !== seLevel) {
             seAtLevel = agrestiCoullInterval(x, n, level, 'two').se * fpc;
@@ -80,7 +82,7 @@ export function passFailEstimator(summary: RunningSummary, setup: AnalysisSetup)
           }
           return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: seAtLevel };
         };
-  if (zeroExact(setup.sided) || (setup.target?.kind === 'limit' && x === 0 && lot === undefined))
+  if (zeroExact(setup.sided) || (setup.target?.kind === 'limit' && (x === 0 || x === n) && lot === undefined))
     labelMethod = 'clopper-pearson';
 
   const project = (target: Target, level: number, sided: Sided): Projection | null => {

@@ -38,6 +38,25 @@ describe('Garwood exact Poisson', () => {
     );
     expect(one.lower).toBe(0);
   });
+  // Large totals (a count of plankton cells, a day of particle counts): the chi-square quantile at
+  // 2·10^15 degrees of freedom. scipy 1.17.1 [derived]:
+  //   python3 -c "from scipy import stats; T=1e10; print(stats.chi2.ppf(0.025, 2*T)/2, stats.chi2.ppf(0.975, 2*T+2)/2)"
+  it.each([
+    [1e6, 0.95, 998040.9833402939, 1001961.9119454322],
+    [1e6, 0.99, 997426.0490212408, 1002578.7088640063],
+    [1e10, 0.95, 9999804004.5487, 10000195998.345615],
+    [1e10, 0.99, 9999742418.947945, 10000257585.808666],
+    [1e15, 0.95, 999999938020497.8, 1000000061979505.1],
+    [1e15, 0.99, 999999918545127.2, 1000000081454877.5],
+  ])(
+    'T = %d at %f: (%f, %f) within 1e-6 of the half-width, vs scipy chi2.ppf [derived]',
+    (t, level, lo, up) => {
+      const r = garwoodInterval(t, 1, level, 'two');
+      const half = (up - lo) / 2;
+      expect(Math.abs(r.lower - lo)).toBeLessThan(1e-6 * half);
+      expect(Math.abs(r.upper - up)).toBeLessThan(1e-6 * half);
+    },
+  );
 });
 
 describe('quasi-Poisson', () => {
