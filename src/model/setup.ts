@@ -116,14 +116,7 @@ const LIMIT_KEYS = ['kind', 'value', 'source', 'date'];
 const SPRT_KEYS = ['alpha', 'beta', 'lowerBound', 'upperBound', 'maxN'];
 const PLANNING_KEYS = ['negBinomialK', 'taylorA', 'taylorB', 'iwaoAlpha', 'iwaoBeta'];
 const STRATUM_KEYS = ['name', 'weight', 'cost', 'population'];
-const TEXT_FIELDS = [
-  'unit',
-  'plotAreaUnit',
-  'outcomeName',
-  'otherOutcomeName',
-  'taxon',
-  'samplingProtocol',
-] as const;
+const TEXT_FIELDS = ['unit', 'plotAreaUnit', 'outcomeName', 'otherOutcomeName', 'taxon', 'samplingProtocol'];
 
 /** One problem: the field path inside the setup (`sprt.alpha`, `strata[2].weight`; '' = the setup itself). */
 export interface SetupProblem {
@@ -263,7 +256,7 @@ export function setupProblems(value: unknown): SetupProblem[] {
   return p.list;
 }
 
-/** The expected range: numbers, low below high, for measurements and counts (a pass/fail item is 0 or 1). */
+/** The expected range (values to question, never refuse): low below high; a pass/fail item is 0 or 1. */
 function checkRange(p: Problems, r: unknown, kind: DataKind | undefined): void {
   if (r === undefined) return;
   if (!isObj(r)) return p.add('expectedRange', `must be an object, got ${show(r)}`);

@@ -52,12 +52,16 @@ describe('a valid setup', () => {
       taxon: 'Aphis fabae',
       samplingProtocol: '0.25 m2 quadrats',
       reportingLimit: 1,
+      decimalSeparator: ',',
+      expectedRange: { low: 0, high: 10_000 },
+      positionWarnM: 30,
+      otherOutcomeName: 'no aphids',
     };
     // the full set of members is what the type declares (a member the validator does not know would be refused)
     expect([...SETUP_KEYS].sort()).toEqual(Object.keys(full).sort());
     // composite + strata, and non-detects / a reporting limit on counts, are refused; everything else passes
-    expect(paths(full)).toEqual(['design', 'nonDetects', 'reportingLimit']);
-    const { design: _d, nonDetects: _n, reportingLimit: _r, ...rest } = full;
+    expect(paths(full)).toEqual(['design', 'nonDetects', 'reportingLimit', 'otherOutcomeName']);
+    const { design: _d, nonDetects: _n, reportingLimit: _r, otherOutcomeName: _o, ...rest } = full;
     expect(validSetup(rest)).toEqual({ ok: true, setup: rest });
     expect(() => assertSetup(rest)).not.toThrow();
   });
@@ -150,6 +154,12 @@ describe('refusals name the field path', () => {
       ['nonDetects', 'reportingLimit'],
     ],
     ['plot-area unit without a plot area', { plotArea: undefined }, ['plotAreaUnit']],
+    [
+      'expected range upside down, a third decimal separator, a position warning of 0 m',
+      { expectedRange: { low: 5, high: 5 }, decimalSeparator: ';', positionWarnM: 0 },
+      ['decimalSeparator', 'positionWarnM', 'expectedRange.high'],
+    ],
+    ['an open-ended expected range', { expectedRange: { high: 400 } }, []],
   ])('%s', (_label, over, expected) => {
     expect(paths({ ...base, ...over })).toEqual(expected);
   });
