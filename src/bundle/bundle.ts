@@ -83,6 +83,7 @@ const EVENT_MEMBERS: Record<keyof ObservationRecord, true> = {
   voids: true,
   reason: true,
   label: true,
+  corrects: true,
 };
 const SETUP_KEYS = Object.keys(SETUP_MEMBERS) as (keyof StudySetup)[];
 const STUDY_KEYS = Object.keys(STUDY_MEMBERS) as (keyof StudyRecord)[];

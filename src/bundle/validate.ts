@@ -160,8 +160,10 @@ function checkEvent(p: Problems, e: unknown, i: number, study: Obj): void {
     p.string(`${w}.reason`, e.reason, true, true);
     if (e.value !== undefined) p.add(`${w}.value`, 'a void event carries no value');
     if (e.censored !== undefined) p.add(`${w}.censored`, 'a void event carries no value');
+    if (e.corrects !== undefined) p.add(`${w}.corrects`, 'only entries (with a value) correct another entry');
     return;
   }
+  p.uuid(`${w}.corrects`, e.corrects, false);
   if (e.reason !== undefined) p.add(`${w}.reason`, 'only void events (with "voids") carry a reason');
   const kind = isObj(study.setup) ? study.setup.kind : undefined;
   const v = e.value;
@@ -194,6 +196,20 @@ function checkLinks(p: Problems, events: Obj[]): void {
     else if (events[target]!.voids !== undefined)
       p.add(`events[${i}].voids`, `events[${target}] is itself a void; only entries can be voided`);
     else if (target === i) p.add(`events[${i}].voids`, 'an event cannot void itself');
+  });
+  // a correction names the entry it replaces: an entry of this bundle that some void withdraws (not
+  // necessarily earlier in the file: merged logs follow the phones' clocks, which may disagree)
+  const voided = new Set(events.map((e) => e.voids).filter((v): v is string => typeof v === 'string'));
+  events.forEach((e, i) => {
+    if (typeof e.corrects !== 'string' || !isUuid(e.corrects)) return;
+    const target = firstIndex.get(e.corrects);
+    if (target === undefined || events[target]!.voids !== undefined)
+      p.add(`events[${i}].corrects`, `no entry with id ${e.corrects} in this bundle`);
+    else if (!voided.has(e.corrects))
+      p.add(
+        `events[${i}].corrects`,
+        `events[${target}] is not voided; a correction voids the entry it replaces`,
+      );
   });
 }
 

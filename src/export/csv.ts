@@ -198,6 +198,14 @@ function columns(bundle: Bundle): Column[] {
       allowed: 'any text',
       get: (e) => e.reason,
     },
+    {
+      name: 'corrects',
+      type: 'uuid',
+      unit: '',
+      description: 'On corrected entries: id of the entry this one corrects (that entry is voided)',
+      allowed: 'UUID',
+      get: (e) => e.corrects,
+    },
   );
   return cols;
 }

@@ -93,4 +93,9 @@ export interface ObservationRecord {
   reason?: string;
   /** Plot, quadrat, station or item label the crew wrote on the ground. */
   label?: string;
+  /**
+   * Entries only: the id of the entry this one corrects. A correction is a void of the old entry plus this
+   * new entry; the link keeps the correction's origin in the log, the CSV and the bundle.
+   */
+  corrects?: string;
 }

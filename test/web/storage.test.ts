@@ -105,7 +105,7 @@ describe('observations: append-only', () => {
       DEV,
     );
     expect(v).toMatchObject({ seq: 2, voids: e1.id, reason: 'wrong digit' });
-    expect(e).toMatchObject({ seq: 3, value: 1.25, note: 'near the gate' });
+    expect(e).toMatchObject({ seq: 3, value: 1.25, note: 'near the gate', corrects: e1.id });
     expect(await listObservations(s.id)).toEqual([e1, v, e]);
   });
 

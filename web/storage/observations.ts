@@ -141,6 +141,7 @@ export function correctEntry(
         at,
         device,
         ...clean(entry),
+        corrects: targetId,
       };
       const store = tx.objectStore('observations');
       await store.add(v);

@@ -184,6 +184,28 @@ describe('parseBundle', () => {
     expect(p).toContain(`events[5].voids: no entry with id ${uuid(9, 9)} in this bundle`);
     expect(p.some((x) => x.startsWith('events[3].studyId: '))).toBe(true);
   });
+  it('a correction links to the voided entry it replaces; a dangling, live or misplaced link is named', async () => {
+    // event 1 is voided by event 5 (good()); a correcting entry names it
+    const ok = await parseBundle(
+      await damaged((b) => {
+        b.events.push({ ...b.events[4], id: uuid(4, 1), seq: 7, value: 1, corrects: b.events[1].id });
+        delete b.events[6].label;
+      }),
+    );
+    expect(ok.ok).toBe(true);
+    const p = await problemsOf(
+      damaged((b) => {
+        b.events[0].corrects = uuid(9, 9);
+        b.events[2].corrects = b.events[3].id;
+        b.events[5].corrects = b.events[1].id;
+      }),
+    );
+    expect(p).toContain(`events[0].corrects: no entry with id ${uuid(9, 9)} in this bundle`);
+    expect(p).toContain(
+      'events[2].corrects: events[3] is not voided; a correction voids the entry it replaces',
+    );
+    expect(p).toContain('events[5].corrects: only entries (with a value) correct another entry');
+  });
   it('unknown fields and a void with a value', async () => {
     const p = await problemsOf(
       damaged((b) => {

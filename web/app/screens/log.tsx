@@ -60,6 +60,12 @@ function Log({ view }: { view: StudyView }) {
               <span class="what">
                 {voidRec ? <del>{entryWords(r, study.setup)}</del> : entryWords(r, study.setup)}
                 {voidRec && <span class="reason"> voided: {voidRec.reason}</span>}
+                {r.corrects !== undefined && (
+                  <span class="corrects" data-testid="log-corrects">
+                    {' '}
+                    corrects #{seqOf.get(r.corrects) ?? '?'}
+                  </span>
+                )}
               </span>
               <span class="meta">
                 <time dateTime={r.at} title={dateTimeText(r.at)}>
