@@ -49,6 +49,8 @@ async function correctInLog(
   await dialog.getByRole('button', { name: 'Save correction' }).click();
   await expect(dialog).toHaveCount(0);
   await expect(page.getByTestId('log-void').filter({ hasText: `void of #${seq}: ${reason}` })).toHaveCount(1);
+  // the new entry keeps its origin
+  await expect(page.getByTestId('log-corrects').filter({ hasText: `corrects #${seq}` })).toHaveCount(1);
 }
 
 async function offlineReload(page: Page) {
