@@ -1,30 +1,29 @@
 /**
- * `sure-enough assess [FILE|-]`: reads values (one per line, or a CSV with a `value` column), assesses them
- * with the same core the app uses (src/assess/) and prints one JSON object (src/cli/README.md, "Output").
+ * `sure-enough assess [FILE|-]`: reads values (one per line, or a CSV with a value column), the project's
+ * own CSV export or a study bundle (input.ts), assesses them with the same core the app uses (src/assess/)
+ * and prints one JSON object (src/cli/README.md, "Output"); `setupFrom` says whether the setup came from
+ * the flags, the bundle, or the bundle with flags replacing some settings.
  */
 import { assess } from '../assess/index.ts';
-import { parseValues } from '../validate/parse-values.ts';
-import { type ParsedArgs, readInput, UsageError } from './io.ts';
-import { parseStudyFlags, STUDY_FLAGS } from './study-flags.ts';
+import { readStudyInput } from './input.ts';
+import { type ParsedArgs, UsageError } from './io.ts';
+import { STUDY_FLAGS } from './study-flags.ts';
 
 export const summary = 'interval, verdict and how many more for a list of values';
 
 export const flags = STUDY_FLAGS;
 
-export function run(args: ParsedArgs): string {
+export async function run(args: ParsedArgs): Promise<string> {
   if (args.positional.length > 1)
     throw new UsageError(
       `assess takes one input (FILE or -), got ${args.positional.length}: ${args.positional.join(' ')}`,
     );
-  const setup = parseStudyFlags(args.flags);
-  const text = readInput(args.positional[0]);
-  const parsed = parseValues(text, setup.kind);
-  if (!parsed.ok) throw new UsageError(parsed.errors.join('\n'));
-  if (setup.population !== undefined && parsed.points.length > setup.population)
+  const { points, setup, setupFrom, source } = await readStudyInput(args.positional[0], args.flags);
+  if (setup.population !== undefined && points.length > setup.population)
     throw new UsageError(
-      `flag --population: ${parsed.points.length} values were given but the population has only ${setup.population} units`,
+      `${setupFrom === 'bundle' ? "the bundle's population" : 'flag --population'}: ${points.length} values were given but the population has only ${setup.population} units`,
     );
-  const a = assess(parsed.points, setup);
+  const a = assess(points, setup);
   const out = {
     kind: a.kind,
     n: a.n,
@@ -41,6 +40,8 @@ export function run(args: ParsedArgs): string {
     reasonCode: a.verdict.status === 'keep going' ? a.verdict.reason : null,
     details: a.details,
     warnings: a.warnings,
+    setupFrom,
+    input: source,
   };
   return `${JSON.stringify(out)}\n`;
 }

@@ -12,7 +12,7 @@ import { makeBundle, serializeBundle } from '../bundle/bundle.ts';
 import { derivedUuid, formatIso, shiftIso } from '../bundle/ids.ts';
 import { isIsoTimeWithOffset, isUuid, parseBundle } from '../bundle/validate.ts';
 import type { ObservationRecord, Position, StudyRecord, StudySetup } from '../model/records.ts';
-import { parseValues, splitCsv } from '../validate/parse-values.ts';
+import { parseValues, type ValueTable } from '../validate/parse-values.ts';
 import { type FlagSpec, type ParsedArgs, readInput, UsageError } from './io.ts';
 import { parseStudyFlags, STUDY_FLAGS } from './study-flags.ts';
 
@@ -93,26 +93,13 @@ interface CsvLayout {
   columns: Partial<Record<EntryColumn, number>>;
 }
 
-/**
- * The CSV header as parseValues recognises it (first line that is neither blank nor a # comment, holding a
- * "value" cell; separator , ; or tab), with the positions of the optional entry columns; null for plain
- * value lines.
- */
-function csvLayout(lines: readonly string[]): CsvLayout | null {
-  for (const raw of lines) {
-    const line = raw.trim();
-    if (line === '' || line.startsWith('#')) continue;
-    for (const sep of [',', ';', '\t']) {
-      const cells = splitCsv(line, sep).map((c) => c.toLowerCase());
-      if (cells.includes('value') && (cells.length > 1 || sep === ',')) {
-        const columns: CsvLayout['columns'] = {};
-        for (const name of ENTRY_COLUMNS) if (cells.includes(name)) columns[name] = cells.indexOf(name);
-        return { sep, columns };
-      }
-    }
-    return null;
-  }
-  return null;
+/** The positions of the optional entry columns in the header parseValues found (null for value lines). */
+function csvLayout(table: ValueTable): CsvLayout | null {
+  if (table.format === 'lines') return null;
+  const cells = table.header.map((c) => c.trim().toLowerCase());
+  const columns: CsvLayout['columns'] = {};
+  for (const name of ENTRY_COLUMNS) if (cells.includes(name)) columns[name] = cells.indexOf(name);
+  return { sep: table.separator, columns };
 }
 
 function cellNumber(raw: string, sep: string): number | null {
@@ -133,7 +120,7 @@ interface EntryCells {
 function readEntryCells(cells: readonly string[], layout: CsvLayout, problems: string[]): EntryCells {
   const cell = (name: EntryColumn): string => {
     const i = layout.columns[name];
-    return i === undefined ? '' : (cells[i] ?? '');
+    return i === undefined ? '' : (cells[i] ?? '').trim();
   };
   const out: EntryCells = {};
   for (const name of ['label', 'note', 'device'] as const) {
@@ -230,15 +217,13 @@ export async function run(args: ParsedArgs): Promise<string> {
     throw new UsageError(`${args.positional[0] ?? 'standard input'}: no values found`);
 
   // Per-entry cells beyond the value: stratum / cluster come from parseValues, the rest from the CSV row.
-  const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\r|\n/);
-  const layout = csvLayout(lines);
+  const layout = csvLayout(parsed.table);
   const declared = setup.strata?.map((s) => s.name);
   const errors: string[] = [];
   const extras: EntryCells[] = parsed.points.map((p, i) => {
     const lineNo = parsed.lines[i]!;
     const problems: string[] = [];
-    const cells =
-      layout === null ? {} : readEntryCells(splitCsv(lines[lineNo - 1]!, layout.sep), layout, problems);
+    const cells = layout === null ? {} : readEntryCells(parsed.cells[i]!, layout, problems);
     if (declared !== undefined) {
       if (p.stratum === undefined)
         problems.push(`no stratum given; --strata declares ${declared.map((d) => `"${d}"`).join(', ')}`);

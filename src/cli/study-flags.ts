@@ -99,13 +99,27 @@ function number(flags: ReadonlyMap<string, string>, name: string): number | unde
 }
 
 /** Parses `margin:D`, `relative:R`, `precision:D` or `limit:L` (the value's range is the validator's). */
-export function parseTarget(raw: string): Target {
+export function parseTarget(raw: string, dataKind?: string): Target {
   const m = /^(margin|relative|precision|limit):(.+)$/.exec(raw.trim());
   if (!m)
     throw new UsageError(`flag --target: "${raw}" is not one of margin:D, relative:R, precision:D, limit:L`);
-  const s = m[2]!.trim();
-  if (!NUMBER.test(s)) throw new UsageError(`flag --target: "${s}" is not a number`);
-  return { kind: m[1] as Target['kind'], value: Number(s) };
+  const kind = m[1] as Target['kind'];
+  const typed = m[2]!.trim();
+  // `relative:20%` and `relative:0.2` both mean ±20 %; a percent sign divides by 100 (pass/fail margins and
+  // limits are proportions too, so `limit:10%` reads as 0.1)
+  const percent = typed.endsWith('%');
+  const s = percent ? typed.slice(0, -1).trim() : typed;
+  if (!NUMBER.test(s)) throw new UsageError(`flag --target: "${typed}" is not a number`);
+  if (percent && kind === 'precision')
+    throw new UsageError(
+      `flag --target: precision is SE/mean as a fraction (e.g. precision:0.1), not "${typed}"`,
+    );
+  // a measurement's margin or limit is in the data's unit, which may itself be % (moisture, cover)
+  if (percent && kind !== 'relative' && dataKind !== 'pass-fail')
+    throw new UsageError(
+      `flag --target: "${typed}" — a ${kind} is in the data's unit; write the number alone (a percent sign is read only for relative targets and pass/fail proportions)`,
+    );
+  return { kind, value: percent ? Number(s) / 100 : Number(s) };
 }
 
 /** Only the members that were given (the validator reads a missing member as `missing`). */
@@ -114,13 +128,13 @@ function given(o: Record<string, unknown>): Record<string, unknown> {
 }
 
 /** The setup the study flags describe, before validation (fields exactly as typed, parsed to numbers). */
-function readStudyFlags(flags: ReadonlyMap<string, string>): Record<string, unknown> {
+export function readStudyFlags(flags: ReadonlyMap<string, string>): Record<string, unknown> {
   const setup: Record<string, unknown> = given({
     kind: flags.get('kind'),
     level: number(flags, 'level') ?? SETUP_DEFAULTS.level,
     sided: flags.get('sided') ?? SETUP_DEFAULTS.sided,
     method: flags.get('method'),
-    target: flags.has('target') ? parseTarget(flags.get('target')!) : undefined,
+    target: flags.has('target') ? parseTarget(flags.get('target')!, flags.get('kind')) : undefined,
     rule: flags.get('rule') ?? SETUP_DEFAULTS.rule,
     min: number(flags, 'min') ?? SETUP_DEFAULTS.min,
     population: number(flags, 'population'),

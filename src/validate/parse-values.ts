@@ -1,22 +1,40 @@
 /**
- * Parsing field values from text — one value per line, or a CSV with a `value` column — into points,
- * with each problem named by its line. Pure (no Node APIs): the command line and the app's import share it.
+ * Parsing field values from text — one value per line, a CSV with a value column, or the project's own
+ * CSV export — into points, with each problem named by its line. Pure (no Node APIs): the command line
+ * and the app's import share it. The text is read by the one CSV reader (csv-read.ts, RFC 4180), so a
+ * quoted comma, quote or line break inside a note never splits a record.
  *
  * Rules (src/cli/README.md, "Input"): blank lines and lines starting with `#` are ignored; a decimal comma is
  * accepted when the line holds one number (`4,25` = 4.25); `<RL` (e.g. `<0.5`) is a value below a
  * reporting limit (a non-detect, measurements only); pass-fail values are 0 or 1; counts are non-negative
- * integers. A CSV is recognised when the first data line is a header with a `value` column (separator
- * `,`, `;` or tab; with `;` or tab a decimal comma inside the cell is accepted).
- * Field designs (issue 7): a CSV may add `stratum` and `cluster` columns (primary unit: transect, room,
+ * integers. A CSV is recognised when the first record is a header with a value column (value-columns.ts;
+ * separator `,`, `;` or tab; with `;` or tab a decimal comma inside the cell is accepted).
+ * Field designs: a CSV may add `stratum` and `cluster` columns (primary unit: transect, room,
  * composite); a plain line may read `value,stratum` or `value,stratum,cluster` (or `value,,cluster`),
  * recognised when the second field does not start with a digit, sign or point (`4,2` stays 4.2).
- * Returns: `{ ok: true, points, lines }` (lines = the source line of each point) or `{ ok: false, errors }`
- * with messages such as `line 4: "abc" is not a number`.
- * @example parseValues('# depth\n4,2\n5.1\n', 'measurement') // { ok: true, points: [{ value: 4.2 }, { value: 5.1 }] }
+ * The project's CSV export (src/export/csv.ts) is read as it is written: only `counted` rows, `censored`
+ * = true kept as a non-detect at the reporting limit in the value column.
+ * Returns: `{ ok: true, points, lines, table }` (lines = the source line of each point; table = how the
+ * text was read, with each point's CSV cells) or `{ ok: false, errors }` with messages such as
+ * `line 4: "abc" is not a number`.
+ * @example parseValues('# depth\n4,2\n5.1\n', 'measurement') // { ok: true, points: [{ value: 4.2 }, { value: 5.1 }], … }
  */
 import type { DataKind, Point } from '../model/types.ts';
+import { type CsvRecord, readCsv } from './csv-read.ts';
+import { findTable, type ValueTable } from './value-columns.ts';
 
-export type ParseResult = { ok: true; points: Point[]; lines: number[] } | { ok: false; errors: string[] };
+export type { ValueTable } from './value-columns.ts';
+
+export type ParseResult =
+  | {
+      ok: true;
+      points: Point[];
+      lines: number[];
+      table: ValueTable;
+      /** Each point's CSV cells (empty arrays for plain value lines), for callers that read more columns. */
+      cells: string[][];
+    }
+  | { ok: false; errors: string[] };
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const COMMA_DECIMAL = /^[+-]?\d*,\d+([eE][+-]?\d+)?$/;
@@ -38,29 +56,6 @@ function parseNumber(raw: string, allowCommaDecimal: boolean): number | string {
   return `${show(s)} is not a number`;
 }
 
-/** One line split into trimmed cells (double quotes group; "" is a quote inside quotes). Shared with `bundle`. */
-export function splitCsv(line: string, sep: string): string[] {
-  const out: string[] = [];
-  let cur = '';
-  let quoted = false;
-  for (let i = 0; i < line.length; i++) {
-    const ch = line[i]!;
-    if (quoted) {
-      if (ch === '"' && line[i + 1] === '"') {
-        cur += '"';
-        i++;
-      } else if (ch === '"') quoted = false;
-      else cur += ch;
-    } else if (ch === '"') quoted = true;
-    else if (ch === sep) {
-      out.push(cur);
-      cur = '';
-    } else cur += ch;
-  }
-  out.push(cur);
-  return out.map((c) => c.trim());
-}
-
 function checkKind(value: number, censored: boolean, kind: DataKind): string | null {
   if (!Number.isFinite(value)) return 'is not a finite number';
   if (censored) {
@@ -78,66 +73,77 @@ function checkKind(value: number, censored: boolean, kind: DataKind): string | n
   return null;
 }
 
+interface Cell {
+  text: string;
+  stratum?: string;
+  cluster?: string;
+  /** From the export's `censored` column. */
+  censored?: boolean;
+}
+
+/** The value cell (and design cells) of one record, or an error (without the line prefix); null = skip. */
+function cellOf(rec: CsvRecord, t: ValueTable): Cell | string | null {
+  if (t.format === 'lines') {
+    // one value per line: the record's fields joined back give the line as typed (`4,2` is 4.2)
+    const line = rec.cells.join(',').trim();
+    const m = /^([^,;\t]+)[,;\t]([^,;\t]*)(?:[,;\t]([^,;\t]+))?$/.exec(line);
+    if (m && !/^\s*[-+.\d]/.test(m[2]!) && (m[2]!.trim() !== '' || m[3] !== undefined)) {
+      const c: Cell = { text: m[1]!.trim() };
+      if (m[2]!.trim() !== '') c.stratum = m[2]!.trim();
+      if (m[3] !== undefined) c.cluster = m[3].trim();
+      return c;
+    }
+    return { text: line };
+  }
+  const at = (i: number | undefined) => (i === undefined ? '' : (rec.cells[i] ?? '').trim());
+  if (t.status !== undefined && at(t.status) !== 'counted') return null;
+  if (rec.cells.length <= t.valueColumn) return `has no value in the "${t.valueName}" column`;
+  const text = at(t.valueColumn);
+  if (text === '') return `the "${t.valueName}" cell is empty`;
+  const c: Cell = { text };
+  if (at(t.stratum) !== '') c.stratum = at(t.stratum);
+  if (at(t.cluster) !== '') c.cluster = at(t.cluster);
+  if (t.censored !== undefined) {
+    const flag = at(t.censored).toLowerCase();
+    if (flag !== '' && flag !== 'true' && flag !== 'false')
+      return `the "censored" cell ${show(at(t.censored))} is not true or false`;
+    if (flag === 'true') c.censored = true;
+  }
+  return c;
+}
+
 export function parseValues(text: string, kind: DataKind): ParseResult {
-  const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\r|\n/);
+  const found = findTable(text);
+  if (!found.ok) return { ok: false, errors: [found.error] };
+  const { table, records } = found;
+  if (table.kind !== undefined && table.kind !== kind)
+    return {
+      ok: false,
+      errors: [
+        `line ${records[0]!.line}: the column "${table.valueName}" holds ${table.kind} data, but the data kind is ${kind}`,
+      ],
+    };
   const points: Point[] = [];
   const where: number[] = [];
+  const cells: string[][] = [];
   const errors: string[] = [];
-  let csv: { sep: string; column: number; width: number; stratum?: number; cluster?: number } | null = null;
-  let seenData = false;
-  for (let i = 0; i < lines.length && errors.length < MAX_ERRORS; i++) {
-    const lineNo = i + 1;
-    const line = lines[i]!.trim();
-    if (line === '' || line.startsWith('#')) continue;
-    if (!seenData) {
-      seenData = true;
-      for (const sep of [',', ';', '\t']) {
-        const cells = splitCsv(line, sep).map((c) => c.toLowerCase());
-        const column = cells.indexOf('value');
-        if (column >= 0 && (cells.length > 1 || sep === ',')) {
-          csv = { sep, column, width: cells.length };
-          if (cells.includes('stratum')) csv.stratum = cells.indexOf('stratum');
-          if (cells.includes('cluster')) csv.cluster = cells.indexOf('cluster');
-          break;
-        }
-      }
-      if (csv !== null) continue;
-      if (/^value$/i.test(line)) {
-        csv = { sep: ',', column: 0, width: 1 };
-        continue;
-      }
+  const body = table.format === 'lines' ? records : records.slice(1);
+  for (const rec of body) {
+    if (errors.length >= MAX_ERRORS) break;
+    const lineNo = rec.line;
+    const c = cellOf(rec, table);
+    if (c === null) continue;
+    if (typeof c === 'string') {
+      errors.push(`line ${lineNo}: ${c}`);
+      continue;
     }
-    let cell = line;
-    let stratum: string | undefined;
-    let cluster: string | undefined;
-    if (csv === null) {
-      const m = /^([^,;\t]+)[,;\t]([^,;\t]*)(?:[,;\t]([^,;\t]+))?$/.exec(line);
-      if (m && !/^\s*[-+.\d]/.test(m[2]!) && (m[2]!.trim() !== '' || m[3] !== undefined)) {
-        cell = m[1]!.trim();
-        if (m[2]!.trim() !== '') stratum = m[2]!.trim();
-        if (m[3] !== undefined) cluster = m[3].trim();
-      }
-    }
-    if (csv !== null) {
-      const cells = splitCsv(line, csv.sep);
-      if (csv.stratum !== undefined && cells[csv.stratum]) stratum = cells[csv.stratum];
-      if (csv.cluster !== undefined && cells[csv.cluster]) cluster = cells[csv.cluster];
-      if (cells.length <= csv.column) {
-        errors.push(`line ${lineNo}: has no value in the "value" column`);
-        continue;
-      }
-      cell = cells[csv.column]!;
-      if (cell === '') {
-        errors.push(`line ${lineNo}: the "value" cell is empty`);
-        continue;
-      }
-    }
-    let censored = false;
+    let cell = c.text;
+    let censored = c.censored === true;
     if (cell.startsWith('<')) {
       censored = true;
       cell = cell.slice(1).trim();
     }
-    const v = parseNumber(cell, csv === null || csv.sep !== ',');
+    const v = parseNumber(cell, table.format === 'lines' || table.separator !== ',');
     if (typeof v === 'string') {
       errors.push(`line ${lineNo}: ${censored ? `"<" must be followed by a reporting limit; ` : ''}${v}`);
       continue;
@@ -148,10 +154,11 @@ export function parseValues(text: string, kind: DataKind): ParseResult {
       continue;
     }
     const point: Point = censored ? { value: v, censored: true } : { value: v };
-    if (stratum !== undefined) point.stratum = stratum;
-    if (cluster !== undefined) point.cluster = cluster;
+    if (c.stratum !== undefined) point.stratum = c.stratum;
+    if (c.cluster !== undefined) point.cluster = c.cluster;
     points.push(point);
     where.push(lineNo);
+    cells.push(table.format === 'lines' ? [] : rec.cells);
   }
   if (errors.length > 0) return { ok: false, errors };
   if (points.length === 0)
@@ -159,5 +166,8 @@ export function parseValues(text: string, kind: DataKind): ParseResult {
       ok: false,
       errors: ['the input holds no values (one value per line, or a CSV with a "value" column)'],
     };
-  return { ok: true, points, lines: where };
+  return { ok: true, points, lines: where, table, cells };
 }
+
+/** Re-exported for callers that read CSV cells beside the values (the one reader, csv-read.ts). */
+export { readCsv };

@@ -5,7 +5,7 @@ import { parseValues } from '../../../src/validate/parse-values.ts';
 describe('parseValues', () => {
   it('one value per line; blank and # lines ignored; decimal comma when the line holds one number', () => {
     const r = parseValues('# site A\n4,25\n\n  5.5 \n-1e-2\n', 'measurement');
-    expect(r).toEqual({
+    expect(r).toMatchObject({
       ok: true,
       points: [{ value: 4.25 }, { value: 5.5 }, { value: -0.01 }],
       lines: [2, 4, 5],
