@@ -281,6 +281,12 @@ function checkTarget(p: Problems, t: unknown, kind: DataKind | undefined): Targe
   if (!p.number('target.value', v, { required: true })) return undefined;
   if (tk === undefined) return undefined;
   if (tk !== 'limit' && !(v > 0)) p.add('target.value', `must be ${ABOVE_0}`);
+  else if (tk === 'relative' && v > 1)
+    // a bare number above 1 is ambiguous: a fraction (as stored) or a percentage (as people say it)
+    p.add(
+      'target.value',
+      `a relative target is a fraction of the estimate: ${v} would mean ±${v * 100} %; for ±${v} % write ${v / 100} (or ${v}% on the command line)`,
+    );
   else if (kind === 'pass-fail' && tk === 'limit' && !(v > 0 && v < 1))
     p.add('target.value', 'must be strictly between 0 and 1 for pass/fail (a proportion: 0 % and 100 %)');
   else if (kind === 'pass-fail' && tk === 'margin' && !(v < 1))
