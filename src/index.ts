@@ -15,6 +15,12 @@ export {
   strataProgress,
   usesDesign,
 } from './assess/index.ts';
+export {
+  RUNNING_SNAPSHOT_VERSION,
+  type RunningSnapshot,
+  restoreRunning,
+  snapshotRunning,
+} from './assess/snapshot.ts';
 export { clusterRatioMean } from './design/cluster-ratio-mean.ts';
 export { compositeUcl } from './design/composite-ucl.ts';
 export { designEffect } from './design/design-effect.ts';

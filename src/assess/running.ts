@@ -29,6 +29,17 @@ export interface SeriesPoint {
 /** The chart keeps at most this many points: when full, every other one is dropped (the stride doubles). */
 export const SERIES_MAX = 160;
 
+/** The state a running assessment carries beside its counted entries (see `carried()`). */
+export interface RunningCarried {
+  /** The entries' keys (entry ids), in entry order. */
+  keys: (string | null)[];
+  memory: MoreMemory | null;
+  current: Assessment | null;
+  stride: number;
+  sampled: SeriesPoint[];
+  latest: SeriesPoint | null;
+}
+
 interface Entry {
   key: string | null;
   point: Point;
@@ -112,6 +123,40 @@ export class RunningAssessment {
   correct(key: string, point: Point, newKey: string | null = null): Assessment {
     this.void(key);
     return this.add(point, newKey);
+  }
+
+  /**
+   * Everything beyond the counted entries that the figures carry forward (the chart's sampling and the
+   * smoothing memory): snapshot.ts stores it so that a restored assessment continues exactly as this one.
+   */
+  carried(): RunningCarried {
+    return {
+      keys: this.entries.map((e) => e.key),
+      memory: this.memory === null ? null : { ...this.memory },
+      current: this.current,
+      stride: this.stride,
+      sampled: this.sampled.map((p) => ({ ...p })),
+      latest: this.latest === null ? null : { ...this.latest },
+    };
+  }
+
+  /**
+   * A running assessment from its counted entries and what `carried()` gave: the entries are counted again
+   * with the O(1) running-sum update only (no pipeline run), so the sums are exactly those of a rebuild;
+   * the assessment, the smoothing memory and the chart are taken as stored. snapshot.ts checks the parts.
+   */
+  static resumed(setup: AnalysisSetup, points: readonly Point[], carried: RunningCarried): RunningAssessment {
+    const r = new RunningAssessment(setup);
+    for (const [i, point] of points.entries()) {
+      r.entries.push({ key: carried.keys[i] ?? null, point });
+      r.state.add(point);
+    }
+    r.memory = carried.memory;
+    r.current = carried.current;
+    r.stride = carried.stride;
+    r.sampled = carried.sampled;
+    r.latest = carried.latest;
+    return r;
   }
 
   /** The counted points in entry order (the strata panel and the exports read them). */
