@@ -3,13 +3,14 @@
  * what and where (`events[12].at: not an ISO 8601 time with UTC offset`). Never a partial bundle.
  *
  * Order of checks: JSON syntax; `format` and `version` (a file that is not a bundle, or is from a newer
- * version, stops here); then every field of `study`, `study.setup` and each event; then links between
+ * version, stops here; an older version is upgraded first, version.ts); then every field of `study`, `study.setup` and each event; then links between
  * events (duplicate ids, voids that point nowhere); and last the checksum, which is only meaningful
  * once the structure is right.
  */
 import type { ObservationRecord, StudyRecord } from '../model/records.ts';
 import { setupPath, setupProblems } from '../model/setup.ts';
 import { BUNDLE_FORMAT, BUNDLE_VERSION, type Bundle, bundleChecksum, KNOWN_KEYS } from './bundle.ts';
+import { upgradeBundle } from './version.ts';
 
 export type BundleResult = { ok: true; bundle: Bundle } | { ok: false; problems: string[] };
 
@@ -59,7 +60,8 @@ class Problems {
   }
   unknownKeys(where: string, obj: Obj, known: readonly string[]): void {
     for (const k of Object.keys(obj))
-      if (!known.includes(k)) this.add(`${where}.${k}`, 'unknown field (not in bundle format version 1)');
+      if (!known.includes(k))
+        this.add(`${where}.${k}`, `unknown field (not in bundle format version ${BUNDLE_VERSION})`);
   }
   string(where: string, v: unknown, required: boolean, nonEmpty = false): void {
     if (v === undefined) {
@@ -229,23 +231,18 @@ export async function parseBundle(text: string): Promise<BundleResult> {
 }
 
 /** Validates an already-parsed value (see parseBundle). */
-export async function validateBundle(data: unknown): Promise<BundleResult> {
+export async function validateBundle(input: unknown): Promise<BundleResult> {
   const p = new Problems();
-  if (!isObj(data)) return { ok: false, problems: [`file: must be a JSON object, got ${show(data)}`] };
-  if (data.format !== BUNDLE_FORMAT)
+  if (!isObj(input)) return { ok: false, problems: [`file: must be a JSON object, got ${show(input)}`] };
+  if (input.format !== BUNDLE_FORMAT)
     return {
       ok: false,
-      problems: [`format: not a study bundle (expected "${BUNDLE_FORMAT}", got ${show(data.format)})`],
+      problems: [`format: not a study bundle (expected "${BUNDLE_FORMAT}", got ${show(input.format)})`],
     };
-  if (data.version !== BUNDLE_VERSION) {
-    const newer = isNum(data.version) && data.version > BUNDLE_VERSION;
-    return {
-      ok: false,
-      problems: [
-        `version: this program reads bundle format version ${BUNDLE_VERSION}, got ${show(data.version)}${newer ? ' (made by a newer version; update the program)' : ''}`,
-      ],
-    };
-  }
+  // a newer version is refused naming both versions; an older one is upgraded first (version.ts)
+  const versioned = await upgradeBundle(input);
+  if (!versioned.ok) return { ok: false, problems: [versioned.problem] };
+  const data = versioned.data;
   p.unknownKeys('(top level)', data, ['format', 'version', 'study', 'events', 'checksum']);
   checkStudy(p, data.study);
   const study = isObj(data.study) ? data.study : {};

@@ -117,7 +117,7 @@ describe('parseBundle', () => {
     ]));
   it('newer version', async () =>
     expect((await problemsOf(damaged((b) => (b.version = 2))))[0]).toMatch(
-      /^version: .*got 2 \(made by a newer version/,
+      /^version: this file is bundle format version 2, made by a newer version .*reads bundle format version 1 and older/,
     ));
   it('failed checksum: one value changed after export', async () => {
     const p = await problemsOf(damaged((b) => (b.events[2].value = 6), false));
