@@ -56,10 +56,17 @@ const QUOTE_WORDS: Record<string, string> = {
 
 /**
  * Reads CSV text with the given separator. Blank records and records whose first field starts with `#`
- * (comments) are left out. A malformed record (an unclosed quote, text after a closing quote) stops the
- * read with `line N: …` naming the line where the quote is.
+ * (comments, the values input's rule) are left out; `{ comments: false }` keeps the `#` records and the
+ * records of spaces (a table such as the project's own export, where neither is special), and leaves out
+ * only empty lines. A malformed record (an unclosed quote,
+ * text after a closing quote) stops the read with `line N: …` naming the line where the quote is.
  */
-export function readCsv(input: string, separator: CsvSeparator = ','): CsvRead {
+export function readCsv(
+  input: string,
+  separator: CsvSeparator = ',',
+  options: { comments?: boolean } = {},
+): CsvRead {
+  const comments = options.comments ?? true;
   const text = input.startsWith('\uFEFF') ? input.slice(1) : input;
   const starts = lineStarts(text);
   const records: CsvRecord[] = [];
@@ -71,7 +78,7 @@ export function readCsv(input: string, separator: CsvSeparator = ','): CsvRead {
     header: false,
     dynamicTyping: false,
     skipEmptyLines: false,
-    comments: '#',
+    comments: comments ? '#' : false,
     step: (r) => {
       if (error !== null) return;
       const problem = r.errors.find((e) => e.type === 'Quotes') ?? r.errors[0];
@@ -87,8 +94,8 @@ export function readCsv(input: string, separator: CsvSeparator = ','): CsvRead {
         return;
       }
       const first = r.data[0]?.trim() ?? '';
-      if (first.startsWith('#')) return;
-      if (r.data.every((c) => c.trim() === '')) return;
+      if (comments && first.startsWith('#')) return;
+      if (comments ? r.data.every((c) => c.trim() === '') : r.data.length === 1 && r.data[0] === '') return;
       records.push({ line, cells: r.data });
     },
   });

@@ -23,7 +23,7 @@ declare module 'papaparse' {
     dynamicTyping: false;
     skipEmptyLines: false;
     /** Lines starting with this text are skipped before parsing (so a quote in a comment is harmless). */
-    comments: string;
+    comments: string | false;
     step(result: StepResult): void;
   }
   const Papa: { parse(input: string, config: Config): void };
