@@ -8,6 +8,7 @@ export {
   figureScale,
   figureUnit,
   kindWords,
+  otherOutcomeWords,
   outcomeWords,
   ruleExplained,
   ruleWords,
@@ -16,4 +17,4 @@ export {
   valueUnit,
   withUnit,
 } from './study.ts';
-export { doneWords, moreWords } from './verdict.ts';
+export { decisionWords, doneWords, moreWords } from './verdict.ts';

@@ -11,6 +11,11 @@ export function outcomeWords(setup: StudySetup): string {
   return setup.outcomeName?.trim() || 'outcome';
 }
 
+/** The other result of a pass/fail item: the crew's own words ("latches"), else "no " + the outcome. */
+export function otherOutcomeWords(setup: StudySetup): string {
+  return setup.otherOutcomeName?.trim() || `no ${outcomeWords(setup)}`;
+}
+
 /** Unit of one entry: the measurement unit, "per plot" for counts, nothing for a pass/fail item. */
 export function valueUnit(setup: StudySetup): string {
   if (setup.kind === 'measurement') return setup.unit ?? '';

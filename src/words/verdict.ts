@@ -1,5 +1,8 @@
-/** The verdict's own words beside its status: how many more, and what a reached verdict allows. */
+/** The verdict's own words beside its status: how many more, what a reached verdict allows, the decision. */
+import type { StudySetup } from '../model/records.ts';
 import type { Assessment } from '../model/types.ts';
+import { plain } from './numbers.ts';
+import { outcomeWords, valueUnit, withUnit } from './study.ts';
 
 /**
  * "about 12 more (likely 8–15)" while the verdict is "keep going" and a projection exists; null otherwise.
@@ -22,4 +25,30 @@ export function doneWords(a: Assessment): string | null {
   return a.verdict.status === 'enough'
     ? 'The target is met at this confidence: you may stop.'
     : 'The decision is reached at this confidence: you may stop.';
+}
+
+/** The limit with its unit: "50 mg/kg", "10 % loose fitting"; null without a limit target. */
+function limitWords(setup: StudySetup, sep: string): string | null {
+  const t = setup.target;
+  if (t?.kind !== 'limit') return null;
+  return setup.kind === 'pass-fail'
+    ? `${plain(t.value * 100, sep)} % ${outcomeWords(setup)}`
+    : withUnit(plain(t.value, sep), valueUnit(setup));
+}
+
+/**
+ * The verdict as a field worker reads it at a glance, in plain words and worded as a decision against a
+ * limit ("below the limit of 10 % loose fitting — decided"). The rule's own sentence (crossing lines,
+ * running statistics, its technical name) stays in the core's message, which the screens keep in a fold.
+ */
+export function decisionWords(a: Assessment, setup: StudySetup, sep = '.'): string {
+  const limit = limitWords(setup, sep);
+  const v = a.verdict;
+  if (v.status === 'below limit') return `Below the limit${limit ? ` of ${limit}` : ''} — decided.`;
+  if (v.status === 'above limit') return `Above the limit${limit ? ` of ${limit}` : ''} — decided.`;
+  if (v.status === 'enough') return 'The interval meets the target — enough.';
+  if (v.reason === 'undecided')
+    return `Not decided yet: the data do not yet show which side of the limit${limit ? ` of ${limit}` : ''} it is.`;
+  if (v.reason === 'target-not-met') return 'The interval is still wider than the target.';
+  return v.message;
 }

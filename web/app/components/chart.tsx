@@ -1,15 +1,17 @@
 /**
  * The running estimate and its interval against n, the target (band or limit line) and where the
- * projection meets it. Plain SVG; the series is already downsampled (≤ 160 points), so drawing is
- * bounded work whatever the number of entries.
+ * projection meets it, with the unit on the value axis, "entries" on the other and a legend that names
+ * every mark (the legend's swatches are drawn with the chart's own classes, so they match in the sun
+ * theme too). Plain SVG; the series is already downsampled (≤ 160 points), so drawing is bounded work
+ * whatever the number of entries.
  */
 import type { Assessment, Target } from '../../core.ts';
 import { decimalsFor, fixed } from '../../core-light.ts';
 import type { SeriesPoint } from '../../state/session.ts';
 
 const W = 360;
-const H = 100;
-const PAD = { l: 40, r: 10, t: 10, b: 22 };
+const H = 150;
+const PAD = { l: 44, r: 10, t: 18, b: 24 };
 
 export interface ChartProps {
   series: readonly SeriesPoint[];
@@ -18,16 +20,35 @@ export interface ChartProps {
   /** Multiplier for labels (100 for pass/fail percentages). */
   scale: number;
   label: string;
+  /** Unit of the figures as shown ("mg/L", "% loose fitting", "per plot"). */
+  unit?: string;
+  sep?: string;
 }
 
 /** Tick label with enough decimals to tell ticks `step` apart (the words module's rounding rule). */
-function nice(x: number, step: number): string {
-  return fixed(x, decimalsFor(step));
+function nice(x: number, step: number, sep = '.'): string {
+  return fixed(x, decimalsFor(step), sep);
+}
+
+/** One legend entry: a small swatch drawn with the chart's class for that mark, and its name. */
+function Key(props: { cls: string; shape: 'line' | 'area'; children: string }) {
+  return (
+    <li>
+      <svg class="swatch" viewBox="0 0 24 12" aria-hidden="true">
+        {props.shape === 'area' ? (
+          <rect class={props.cls} x="0" y="1" width="24" height="10" />
+        ) : (
+          <line class={props.cls} x1="0" x2="24" y1="6" y2="6" />
+        )}
+      </svg>
+      {props.children}
+    </li>
+  );
 }
 
 /** A chart point with both sides bounded (a two-sided interval). */
 type BandPoint = SeriesPoint & { lower: number; upper: number };
-export function Chart({ series, current, target, scale, label }: ChartProps) {
+export function Chart({ series, current, target, scale, label, unit = '', sep = '.' }: ChartProps) {
   // a one-sided bound (the other side null) is not drawn as a band here
   const pts = series.filter((p): p is BandPoint => p.lower !== null && p.upper !== null);
   const last = pts.at(-1);
@@ -76,7 +97,7 @@ export function Chart({ series, current, target, scale, label }: ChartProps) {
   const desc =
     `${label}. Running estimate and interval for n = ${pts[0]?.n} to ${last.n}` +
     (limit !== null
-      ? `, limit line at ${nice(limit * scale, (hi - lo) * scale)}`
+      ? `, limit line at ${nice(limit * scale, (hi - lo) * scale, sep)} ${unit}`
       : band
         ? ', target band around the estimate'
         : '') +
@@ -119,16 +140,49 @@ export function Chart({ series, current, target, scale, label }: ChartProps) {
         )}
         {ticks.map((t) => (
           <text key={t} class="tick" x={PAD.l - 4} y={y(t) + 4} text-anchor="end">
-            {nice(t * scale, ((hi - lo) / 2.5) * scale)}
+            {nice(t * scale, ((hi - lo) / 2.5) * scale, sep)}
           </text>
         ))}
         <text class="tick" x={PAD.l} y={H - 6}>
-          n = 1
+          1
+        </text>
+        <text class="axis-name" x={(PAD.l + W - PAD.r) / 2} y={H - 6} text-anchor="middle">
+          entries (n)
         </text>
         <text class="tick" x={W - PAD.r} y={H - 6} text-anchor="end">
           {xMax}
         </text>
+        {unit && (
+          <text class="axis-name" x={4} y={11} data-testid="chart-unit">
+            {unit}
+          </text>
+        )}
       </svg>
+      <figcaption>
+        <ul class="legend" data-testid="chart-legend">
+          <Key cls="c-est" shape="line">
+            estimate
+          </Key>
+          <Key cls="c-ci" shape="area">
+            interval
+          </Key>
+          {band && (
+            <Key cls="target-band" shape="area">
+              target: ± around the estimate
+            </Key>
+          )}
+          {limit !== null && (
+            <Key cls="limit" shape="line">
+              {`limit ${nice(limit * scale, (hi - lo) * scale, sep)} ${unit}`.trim()}
+            </Key>
+          )}
+          {meetN !== null && (
+            <Key cls="proj-line" shape="line">
+              {`projection: target near n ${meetN}`}
+            </Key>
+          )}
+        </ul>
+      </figcaption>
     </figure>
   );
 }

@@ -4,20 +4,23 @@
  * On a failed write the typed value stays in the pad; "Saved" appears only after the commit.
  */
 import type { ComponentChildren } from 'preact';
-import { useEffect, useState } from 'preact/hooks';
-import { checkNote, NOTE_MAX, parseCount, parseMeasurement } from '../../input/parse.ts';
-import { setHalfTyped } from '../../state/app-state.ts';
+import { useState } from 'preact/hooks';
+import { NOTE_MAX, parseCount, parseMeasurement } from '../../input/parse.ts';
 import type { NewEntry } from '../../storage/observations.ts';
+import { type Sep, sepName } from '../number-style.ts';
+import { KeepPrompt, PadMessage, useSaver } from './pad-save.tsx';
 
 export interface PadProps {
   disabled: boolean;
   /** The field screen's Undo-last button, placed in the pad's bottom row. */
   undo?: ComponentChildren;
-  /** Resolves with the saved entry's seq once committed; rejects with a readable message. */
-  onSave(entry: NewEntry): Promise<number>;
+  /** Resolves with the saved entry's seq (and a warning, e.g. a coarse position) once committed; rejects with a readable message. */
+  onSave(entry: NewEntry): Promise<{ seq: number; warning?: string }>;
+  /** The "keep it?" question for an implausible value, or null (see ../plausible.ts). */
+  check?(value: number): string | null;
+  /** The study's decimal separator. */
+  sep?: Sep;
 }
-
-type Msg = { kind: 'error' | 'saved'; text: string } | null;
 
 function useNote() {
   const [note, setNote] = useState('');
@@ -49,62 +52,16 @@ function NoteBox(props: { note: string; setNote(v: string): void; id: string }) 
   );
 }
 
-function PadMessage({ msg }: { msg: Msg }) {
-  return (
-    <p
-      class={`pad-msg ${msg?.kind ?? ''}`}
-      role={msg?.kind === 'error' ? 'alert' : 'status'}
-      data-testid="pad-msg"
-      data-committed={msg?.kind === 'saved' ? '1' : undefined}
-    >
-      {msg?.text ?? ''}
-    </p>
-  );
-}
-
-/** Shared save flow: validate the note, save, keep everything on failure, clear (value and note) on success. */
-function useSaver(props: PadProps, padKey: string, dirty: boolean, note: Note) {
-  const [msg, setMsg] = useState<Msg>(null);
-  const [busy, setBusy] = useState(false);
-  useEffect(() => {
-    setHalfTyped(padKey, dirty);
-  }, [padKey, dirty]);
-  useEffect(() => () => setHalfTyped(padKey, false), [padKey]);
-  async function save(entry: NewEntry | { error: string }, onDone: () => void, what: string) {
-    if ('error' in entry) {
-      setMsg({ kind: 'error', text: `${entry.error} Nothing was saved.` });
-      return;
-    }
-    const n = checkNote(note.note);
-    if (!n.ok) {
-      setMsg({ kind: 'error', text: n.message });
-      return;
-    }
-    setBusy(true);
-    try {
-      const seq = await props.onSave(n.text ? { ...entry, note: n.text } : entry);
-      onDone();
-      note.clear();
-      setMsg({ kind: 'saved', text: `Saved #${seq}: ${what}` });
-    } catch (err) {
-      setMsg({ kind: 'error', text: (err as Error).message });
-    } finally {
-      setBusy(false);
-    }
-  }
-  return { msg, setMsg, busy, save };
-}
-
 /** The label of a pad's Save button while loading, saving, or ready. */
 function saveLabel(disabled: boolean, busy: boolean, ready: string): string {
   return disabled ? 'Loading…' : busy ? 'Saving…' : ready;
 }
 
 /** The pad as a form: Enter or the Save button submits, and the page never reloads. */
-function PadForm(props: { onSubmit(): void; children: ComponentChildren }) {
+function PadForm(props: { onSubmit(): void; children: ComponentChildren; cls?: string }) {
   return (
     <form
-      class="pad"
+      class={`pad ${props.cls ?? ''}`}
       aria-label="Entry pad"
       onSubmit={(e) => {
         e.preventDefault();
@@ -169,13 +126,13 @@ function Key(props: { label: string; aria?: string; onPress(): void; disabled: b
   );
 }
 
-function NoteToggle(props: { note: Note; disabled: boolean }) {
+function NoteToggle(props: { note: Note; disabled: boolean; cls?: string }) {
   const n = props.note;
   const has = n.note.trim() !== '';
   return (
     <button
       type="button"
-      class={`key small ${has ? 'on' : ''}`}
+      class={`key small ${has ? 'on' : ''} ${props.cls ?? ''}`}
       aria-expanded={n.open}
       disabled={props.disabled}
       onClick={() => n.setOpen(!n.open)}
@@ -190,11 +147,24 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
   const [censored, setCensored] = useState(false);
   const n = useNote();
   const dirty = text !== '' || n.note.trim() !== '';
-  const { msg, setMsg, busy, save } = useSaver(props, 'measurement', dirty, n);
+  const saver = useSaver(props, 'measurement', dirty, n);
+  const { msg, setMsg, busy, save } = saver;
   const off = props.disabled || busy;
+  const sep = props.sep ?? '.';
   const type = (s: string) => {
     setMsg(null);
     setText((t) => (t + s).slice(0, 40));
+  };
+  // a minus only starts a number: pressed after digits it would build "5−3" into −53
+  const minus = () => {
+    setMsg(null);
+    if (text === '') setText('-');
+    else if (text === '-') setText('');
+    else
+      setMsg({
+        kind: 'error',
+        text: 'A minus sign can only come first: delete the digits (⌫) to key in a negative value.',
+      });
   };
   const submit = () => {
     const p = parseMeasurement(text, 'Value');
@@ -204,7 +174,7 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
         setText('');
         setCensored(false);
       },
-      `${censored ? '< ' : ''}${text.trim()} ${props.unit}`.trim(),
+      `${censored ? '< ' : ''}${p.ok ? String(p.value).replace('.', sep) : text.trim()} ${props.unit}`.trim(),
     );
   };
   const toggleRl = () => {
@@ -212,7 +182,7 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
     if (!censored && text === '' && props.reportingLimit !== undefined) setText(String(props.reportingLimit));
   };
   return (
-    <PadForm onSubmit={submit}>
+    <PadForm onSubmit={submit} cls="measure">
       <PadDisplay
         id="value-input"
         label={`${censored ? 'Reporting limit (result below it)' : 'Value'}${props.unit ? ` in ${props.unit}` : ''}`}
@@ -226,7 +196,8 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
       />
       {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-measurement" />}
       <PadMessage msg={msg} />
-      <div class="keys">
+      <KeepPrompt pending={saver.pending} keep={saver.keep} change={saver.change} />
+      <div class="keys" hidden={!!saver.pending}>
         {['7', '8', '9'].map((k) => (
           <Key key={k} label={k} onPress={() => type(k)} disabled={off} />
         ))}
@@ -239,16 +210,11 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
         {['4', '5', '6'].map((k) => (
           <Key key={k} label={k} onPress={() => type(k)} disabled={off} />
         ))}
-        <Key label="," aria="Decimal comma" onPress={() => type(',')} disabled={off} />
+        <Key label={sep} aria={sepName(sep)} onPress={() => type(sep)} disabled={off} />
         {['1', '2', '3'].map((k) => (
           <Key key={k} label={k} onPress={() => type(k)} disabled={off} />
         ))}
-        <Key
-          label="−"
-          aria="Minus sign"
-          onPress={() => setText((t) => (t.startsWith('-') ? t.slice(1) : `-${t}`))}
-          disabled={off}
-        />
+        <Key label="−" aria="Minus sign" onPress={minus} disabled={off} />
         <button
           type="button"
           class={`key small ${censored ? 'on' : ''}`}
@@ -259,9 +225,9 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
           below RL
         </button>
         <Key label="0" onPress={() => type('0')} disabled={off} cls="wide" />
-        <NoteToggle note={n} disabled={off} />
+        <NoteToggle note={n} disabled={off} cls="note-key" />
       </div>
-      <div class="save-row">
+      <div class="save-row" hidden={!!saver.pending}>
         {props.undo}
         <button type="submit" class="save" disabled={off}>
           {saveLabel(props.disabled, busy, 'Save')}
@@ -275,7 +241,8 @@ export function CountPad(props: PadProps) {
   const [text, setText] = useState('0');
   const n = useNote();
   const dirty = (text !== '0' && text !== '') || n.note.trim() !== '';
-  const { msg, setMsg, busy, save } = useSaver(props, 'count', dirty, n);
+  const saver = useSaver(props, 'count', dirty, n);
+  const { msg, setMsg, busy, save } = saver;
   const off = props.disabled || busy;
   const parsed = parseCount(text);
   const step = (d: number) => {
@@ -306,7 +273,8 @@ export function CountPad(props: PadProps) {
       />
       {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-count" />}
       <PadMessage msg={msg} />
-      <div class="counter">
+      <KeepPrompt pending={saver.pending} keep={saver.keep} change={saver.change} />
+      <div class="counter" hidden={!!saver.pending}>
         <button
           type="button"
           class="key minus"
@@ -334,12 +302,11 @@ export function CountPad(props: PadProps) {
   );
 }
 
-export function PassFailPad(props: PadProps & { outcome: string }) {
+export function PassFailPad(props: PadProps & { outcome: string; other: string }) {
   const n = useNote();
   const { msg, busy, save } = useSaver(props, 'pass-fail', n.note.trim() !== '', n);
   const off = props.disabled || busy;
-  const press = (value: 0 | 1) =>
-    save({ value }, () => undefined, value ? props.outcome : `no ${props.outcome}`);
+  const press = (value: 0 | 1) => save({ value }, () => undefined, value ? props.outcome : props.other);
   return (
     <fieldset class="pad">
       <legend class="sr-only">Entry pad</legend>
@@ -351,7 +318,7 @@ export function PassFailPad(props: PadProps & { outcome: string }) {
           {props.outcome}
         </PfButton>
         <PfButton cls="no" onPress={() => press(0)} disabled={off} mark="✓">
-          no {props.outcome}
+          {props.other}
         </PfButton>
       </div>
       <div class="row2">

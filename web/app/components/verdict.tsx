@@ -1,8 +1,21 @@
-/** The top of the field screen: verdict, n, estimate and interval with the method, and the "more" line. */
+/**
+ * The top of the field screen. What a field worker reads at a glance comes first and stays in view on
+ * every phone size: the verdict word and n, the estimate with its interval and unit, and the "more" line;
+ * then the decision in plain words. How it was worked out (the method's published name, the rule's own
+ * sentence with its lines and formulas) waits in a fold.
+ */
 import type { Assessment } from '../../core.ts';
-import { doneWords, methodWords, moreWords, shownNumbers } from '../../core-light.ts';
+import {
+  decisionWords,
+  doneWords,
+  methodWords,
+  moreWords,
+  ruleWords,
+  shownNumbers,
+} from '../../core-light.ts';
 import { formatDuration } from '../../state/pace.ts';
 import type { StoredStudy } from '../../storage/schema.ts';
+import type { Sep } from '../number-style.ts';
 
 export const SAFETY_LINE = 'Statistical guidance, not an instruction: stop if unsafe.';
 
@@ -12,8 +25,8 @@ export function moreText(a: Assessment, paceMs: number | null): string | null {
 }
 
 /** The method without the stopping rule's explanation (the report carries the whole label). */
-export function shortMethod(a: Assessment): string {
-  const label = methodWords(a);
+export function shortMethod(a: Assessment, sep: Sep = '.'): string {
+  const label = methodWords(a, sep);
   return label.split('; stopping rule')[0] ?? label;
 }
 
@@ -21,11 +34,13 @@ export function verdictClass(a: Assessment): string {
   return `v-${a.verdict.status.replace(' ', '-')}`;
 }
 
-export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs: number | null }) {
-  const { a, study } = props;
-  const s = shownNumbers(a, study.setup);
+export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs: number | null; sep: Sep }) {
+  const { a, study, sep } = props;
+  const s = shownNumbers(a, study.setup, sep);
   const done = doneWords(a);
   const more = moreText(a, props.paceMs);
+  const decision = decisionWords(a, study.setup, sep);
+  const showWhy = !(a.verdict.status === 'keep going' && a.verdict.reason === 'below-minimum' && more);
   return (
     <section class={`verdict ${verdictClass(a)}`} aria-labelledby="verdict-word">
       <div class="verdict-top">
@@ -36,12 +51,7 @@ export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs:
           <span class="n-label">n</span> <span data-testid="n">{a.n}</span>
         </p>
       </div>
-      {!(
-        a.verdict.status === 'keep going' &&
-        (a.verdict.reason === 'below-minimum' || a.verdict.reason === 'target-not-met') &&
-        more
-      ) && <p class="why">{a.verdict.message}</p>}
-      <p class="est">
+      <p class="est" data-testid="est-line">
         <span class="big" data-testid="estimate" data-value={a.estimate ?? undefined}>
           {s.estimate}
         </span>{' '}
@@ -56,13 +66,30 @@ export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs:
           </span>
         )}
       </p>
-      <p class="method">{s.interval ? shortMethod(a) : 'no interval yet (needs at least 2 entries)'}</p>
       {more && (
         <p class="more" data-testid="more">
           {more}
         </p>
       )}
-      {done && <p class="more done">{done}</p>}
+      {done && (
+        <p class="more done" data-testid="done">
+          {done}
+        </p>
+      )}
+      {showWhy && (
+        <p class="why" data-testid="decision">
+          {decision}
+        </p>
+      )}
+      <details class="how" data-testid="how">
+        <summary>How this is worked out</summary>
+        <p>
+          {s.interval ? `Interval: ${shortMethod(a, sep)}.` : 'No interval yet (needs at least 2 entries).'}
+        </p>
+        <p>
+          Stopping rule: {ruleWords(study.setup.rule)}. {a.verdict.message}
+        </p>
+      </details>
       <p class="safety">{SAFETY_LINE}</p>
     </section>
   );

@@ -16,6 +16,8 @@ export interface VoidDialogProps {
   kind: 'measurement' | 'count' | 'pass-fail';
   describe(r: ObservationRecord): string;
   outcome: string;
+  /** The other pass/fail result in the study's words (default "no " + outcome). */
+  other?: string;
   onCancel(): void;
   onVoid(reason: string): Promise<unknown>;
   onCorrect(reason: string, entry: NewEntry): Promise<unknown>;
@@ -94,7 +96,7 @@ export function VoidDialog(p: VoidDialogProps) {
                   checked={value === String(v)}
                   onChange={() => setValue(String(v))}
                 />
-                {v ? p.outcome : `no ${p.outcome}`}
+                {v ? p.outcome : (p.other ?? `no ${p.outcome}`)}
               </label>
             ))}
           </fieldset>

@@ -1,11 +1,12 @@
 /** The log: every event in order. Voided entries are struck through with the void's reason. */
 import { useState } from 'preact/hooks';
 import type { ObservationRecord } from '../../core.ts';
-import { entryWords, outcomeWords } from '../../core-light.ts';
+import { entryWords, otherOutcomeWords, outcomeWords } from '../../core-light.ts';
 import { type StudyView, useStudy } from '../../state/use-study.ts';
 import { DemoLabel, StudyTabs, TopBar } from '../components/chrome.tsx';
 import { VoidDialog } from '../components/void-dialog.tsx';
 import { dateTimeText, timeText } from '../format.ts';
+import { studySep } from '../number-style.ts';
 import { href } from '../router.ts';
 import { afterWrite } from './field.tsx';
 import { StudyGate } from './gate.tsx';
@@ -27,6 +28,7 @@ function positionCell(r: ObservationRecord): string {
 function Log({ view }: { view: StudyView }) {
   const session = view.session!;
   const study = session.study;
+  const sep = studySep(study.setup);
   const [edit, setEdit] = useState<{ mode: 'correct' | 'void'; target: ObservationRecord } | null>(null);
   const records = session.records;
   const seqOf = new Map(records.map((r) => [r.id, r.seq]));
@@ -58,7 +60,7 @@ function Log({ view }: { view: StudyView }) {
             <li key={r.id} class={`log-item ${voidRec ? 'voided' : ''}`} data-testid="log-entry">
               <span class="seq">#{r.seq}</span>
               <span class="what">
-                {voidRec ? <del>{entryWords(r, study.setup)}</del> : entryWords(r, study.setup)}
+                {voidRec ? <del>{entryWords(r, study.setup, sep)}</del> : entryWords(r, study.setup, sep)}
                 {voidRec && <span class="reason"> voided: {voidRec.reason}</span>}
                 {r.corrects !== undefined && (
                   <span class="corrects" data-testid="log-corrects">
@@ -95,7 +97,8 @@ function Log({ view }: { view: StudyView }) {
           target={edit.target}
           kind={study.setup.kind}
           outcome={outcomeWords(study.setup)}
-          describe={(r) => entryWords(r, study.setup)}
+          other={otherOutcomeWords(study.setup)}
+          describe={(r) => entryWords(r, study.setup, sep)}
           onCancel={() => setEdit(null)}
           onVoid={async (reason) => {
             const { before } = await view.voidOne(edit.target.id, reason);

@@ -2,8 +2,10 @@
 import {
   CAUTIONS,
   confidenceWords,
+  decisionWords,
   estimateWords,
   figureScale,
+  figureUnit,
   intervalWords,
   kindWords,
   levelWords,
@@ -15,6 +17,7 @@ import { type StudyView, useStudy } from '../../state/use-study.ts';
 import { Chart } from '../components/chart.tsx';
 import { BackupLine, DemoLabel, StudyTabs, TopBar } from '../components/chrome.tsx';
 import { dateTimeText } from '../format.ts';
+import { studySep } from '../number-style.ts';
 import { href } from '../router.ts';
 import { reportSlots } from '../slots.ts';
 import { StudyGate } from './gate.tsx';
@@ -34,6 +37,7 @@ function Report({ view }: { view: StudyView }) {
   const a = session.assessment;
   const setup = study.setup;
   const t = setup.target;
+  const sep = studySep(setup);
   const what =
     setup.kind === 'pass-fail'
       ? `the proportion of items with “${setup.outcomeName ?? 'the outcome'}”`
@@ -55,15 +59,15 @@ function Report({ view }: { view: StudyView }) {
             {a.n} ({session.voidOf.size} voided, kept in the log)
           </dd>
           <dt>Estimate</dt>
-          <dd data-testid="report-estimate">{estimateWords(a, setup)}</dd>
+          <dd data-testid="report-estimate">{estimateWords(a, setup, sep)}</dd>
           <dt>Interval</dt>
-          <dd data-testid="report-interval">{intervalWords(a, setup)}</dd>
+          <dd data-testid="report-interval">{intervalWords(a, setup, sep)}</dd>
           <dt>Data</dt>
-          <dd>{kindWords(setup)}</dd>
+          <dd>{kindWords(setup, sep)}</dd>
           <dt>Target</dt>
-          <dd data-testid="report-target">{targetWords(t, setup)}</dd>
+          <dd data-testid="report-target">{targetWords(t, setup, sep)}</dd>
           <dt>Confidence</dt>
-          <dd data-testid="report-confidence">{confidenceWords(setup.level, setup.sided)}</dd>
+          <dd data-testid="report-confidence">{confidenceWords(setup.level, setup.sided, sep)}</dd>
           <dt>Stopping rule</dt>
           <dd>{ruleWords(setup.rule)}</dd>
           {setup.population !== undefined && (
@@ -86,11 +90,11 @@ function Report({ view }: { view: StudyView }) {
       <section aria-labelledby="r-method">
         <h2 id="r-method">Method</h2>
         <p class="method-statement">
-          After every entry the app recomputed {what} and its interval by {methodWords(a)}, from the {a.n}{' '}
-          entries that count (voided entries are left out). The target was {targetWords(t, setup)}, at{' '}
-          {levelWords(setup.level)} confidence, with the {ruleWords(setup.rule)} stopping rule; no verdict
-          other than “keep going” is given before {setup.min} entries or while the data have no spread.
-          Current verdict: {a.verdict.status} — {a.verdict.message}
+          After every entry the app recomputed {what} and its interval by {methodWords(a, sep)}, from the{' '}
+          {a.n} entries that count (voided entries are left out). The target was {targetWords(t, setup, sep)},
+          at {levelWords(setup.level, sep)} confidence, with the {ruleWords(setup.rule)} stopping rule; no
+          verdict other than “keep going” is given before {setup.min} entries or while the data have no
+          spread. Current verdict: {a.verdict.status} — {decisionWords(a, setup, sep)} ({a.verdict.message})
         </p>
         {a.warnings.length > 0 && (
           <ul class="warnings">
@@ -108,6 +112,8 @@ function Report({ view }: { view: StudyView }) {
           target={t}
           scale={figureScale(setup)}
           label={`Chart of ${study.name}`}
+          unit={figureUnit(setup)}
+          sep={sep}
         />
       </section>
       <section aria-labelledby="r-cautions">

@@ -13,6 +13,7 @@ import type { StoredStudy } from '../../storage/schema.ts';
 import { listStudies, setArchived } from '../../storage/studies.ts';
 import { TopBar } from '../components/chrome.tsx';
 import { verdictClass } from '../components/verdict.tsx';
+import { studySep } from '../number-style.ts';
 import { href } from '../router.ts';
 import { studiesSlots } from '../slots.ts';
 
@@ -123,7 +124,8 @@ export function StudiesScreen({ archived }: { archived: boolean }) {
             <a class="card-main" href={href.field(r.study.id)}>
               <span class="card-name">{r.study.name}</span>
               <span class="card-kind">
-                {kindWords(r.study.setup)} · {targetWords(r.study.setup.target, r.study.setup)}
+                {kindWords(r.study.setup, studySep(r.study.setup))} ·{' '}
+                {targetWords(r.study.setup.target, r.study.setup, studySep(r.study.setup))}
               </span>
               {r.a ? (
                 <span class={`chip-verdict ${verdictClass(r.a)}`}>
