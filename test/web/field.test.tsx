@@ -48,7 +48,8 @@ describe('field screen', () => {
     expect((screen.getByRole('button', { name: 'Save' }) as HTMLButtonElement).disabled).toBe(false);
     await save('5,3');
     await waitFor(() => expect(screen.getByTestId('pad-msg').textContent).toBe('Saved #3: 5,3 mg/L'));
-    expect(screen.getByTestId('n').textContent).toBe('3');
+    // the statistics follow the acknowledged save, after the next frame
+    await waitFor(() => expect(screen.getByTestId('n').textContent).toBe('3'));
     const log = await listObservations(s.id);
     expect(log.map((r) => r.value)).toEqual([5.1, 4.9, 5.3]);
     // the screen shows the core's own verdict for these points

@@ -95,8 +95,8 @@ describe('schema version 1 → 2', () => {
   it('opens a version-1 database with every record, byVoids no longer unique, byStudySeq still unique', async () => {
     await writeV1();
     const db = await getDb();
-    expect(DB_VERSION).toBe(2);
-    expect(db.version).toBe(2);
+    expect(DB_VERSION).toBe(3);
+    expect(db.version).toBe(DB_VERSION);
     const tx = db.transaction('observations');
     expect(tx.store.index('byVoids').unique).toBe(false);
     expect(tx.store.index('byStudySeq').unique).toBe(true);
@@ -131,7 +131,7 @@ describe('schema version 1 → 2', () => {
 
   it('a fresh database is created at version 2 with the same non-unique index', async () => {
     const db = await getDb();
-    expect(db.version).toBe(2);
+    expect(db.version).toBe(DB_VERSION);
     expect(db.transaction('observations').store.index('byVoids').unique).toBe(false);
   });
 });

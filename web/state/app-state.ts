@@ -21,6 +21,18 @@ export function setHalfTyped(key: string, dirty: boolean): void {
 }
 export const persistState = store<PersistState | null>(null);
 export const device = store<string>('');
+let deviceWait: Promise<string> | null = null;
+/** Bootstrap hands over the device id's read; the store is set when it arrives. */
+export function deviceFrom(p: Promise<string>): void {
+  deviceWait = p.then((id) => {
+    device.set(id);
+    return id;
+  });
+}
+/** The device id, once read (at once when already known, or when no read was handed over: tests). */
+export function deviceReady(): Promise<string> {
+  return device.get() !== '' || deviceWait === null ? Promise.resolve(device.get()) : deviceWait;
+}
 
 export interface Settings {
   sun: boolean;

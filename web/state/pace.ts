@@ -8,7 +8,7 @@ export const BREAK_MS = 10 * 60 * 1000;
 export const MIN_GAPS = 5;
 
 class Heap {
-  private a: number[] = [];
+  a: number[] = [];
   constructor(private readonly before: (x: number, y: number) => boolean) {}
   get size(): number {
     return this.a.length;
@@ -53,6 +53,25 @@ export class Pace {
   private low = new Heap((x, y) => x > y);
   private high = new Heap((x, y) => x < y);
   private last: number | undefined;
+
+  /** The two heaps and the last time, as plain data (the running snapshot stores it). */
+  state(): { low: number[]; high: number[]; last: number | null } {
+    return { low: [...this.low.a], high: [...this.high.a], last: this.last ?? null };
+  }
+
+  /** A pace from `state()`; null when the data are not one (the caller then rebuilds from the log). */
+  static restore(x: unknown): Pace | null {
+    if (typeof x !== 'object' || x === null) return null;
+    const s = x as { low?: unknown; high?: unknown; last?: unknown };
+    const ok = (a: unknown): a is number[] => Array.isArray(a) && a.every((g) => Number.isFinite(g));
+    if (!ok(s.low) || !ok(s.high) || !(s.last === null || Number.isFinite(s.last))) return null;
+    if (s.low.length < s.high.length || s.low.length > s.high.length + 1) return null;
+    const p = new Pace();
+    p.low.a = [...s.low];
+    p.high.a = [...s.high];
+    p.last = (s.last as number | null) ?? undefined;
+    return p;
+  }
 
   /** Feed entry times (ms) in order. */
   addEntryTime(ms: number): void {

@@ -1,11 +1,23 @@
 /**
- * Loads a study and its log from storage into a StudySession and exposes the writes. The pads stay
- * disabled until `loaded` (a save racing the first load would be overwritten by it). Every write
- * resolves only after the transaction committed; the session is updated only then.
+ * Loads a study into a StudySession and exposes the writes. The pads stay disabled until `loaded` (a save
+ * racing the first load would be overwritten by it). Every write resolves only after the transaction
+ * committed; the session is updated only then.
+ *
+ * Start: the storage reads and the statistics core's fetch run in parallel. The field screen opens from the
+ * study's running snapshot when it matches the log (same record count, same last record: one count and a
+ * one-step cursor, not the log) and rebuilds from the log otherwise; the other screens read the whole log.
+ * Nothing is written at start.
+ *
+ * Tap path (`add`): one `add()` with the seq the session knows; it resolves once committed ("Saved #k"),
+ * and the statistics follow after the next frame (`applied`), so the crew sees the save acknowledged
+ * before the figures are recomputed. If another tab took that seq meanwhile (ConstraintError from the
+ * unique [studyId, seq] index), the log is read again and the entry saved once more after it — never
+ * written over anything. The snapshot is written after saves, when the page is idle.
  */
 import { useCallback, useEffect, useRef, useState } from 'preact/hooks';
 import type { Assessment, ObservationRecord } from '../core.ts';
 import { loadCore } from '../core-loader.ts';
+import { StorageError } from '../storage/db.ts';
 import { exportedUpTo } from '../storage/exports.ts';
 import {
   addEntry,
@@ -14,8 +26,9 @@ import {
   type NewEntry,
   voidEntry,
 } from '../storage/observations.ts';
+import { matchesLog, readStart, writeSnapshot } from '../storage/snapshots.ts';
 import { getStudy } from '../storage/studies.ts';
-import { device } from './app-state.ts';
+import { device, deviceReady } from './app-state.ts';
 import { StudySession } from './session.ts';
 
 export interface StudyView {
@@ -26,7 +39,13 @@ export interface StudyView {
   exported: number;
   /** Bumps on every change so components re-render. */
   version: number;
-  add(entry: NewEntry): Promise<{ record: ObservationRecord; before: Assessment }>;
+  /**
+   * Saves one entry; resolves once it has committed, with the assessment before it. `applied` resolves
+   * with the assessment after it once the statistics have been updated (after the next frame).
+   */
+  add(
+    entry: NewEntry,
+  ): Promise<{ record: ObservationRecord; before: Assessment; applied: Promise<Assessment> }>;
   undoLast(reason: string): Promise<{ record: ObservationRecord; before: Assessment }>;
   correct(
     targetId: string,
@@ -36,7 +55,54 @@ export interface StudyView {
   voidOne(targetId: string, reason: string): Promise<{ record: ObservationRecord; before: Assessment }>;
 }
 
-export function useStudy(id: string): StudyView {
+/** Where a screen opens a study from: the whole log, or the running snapshot when it matches the log. */
+export type OpenFrom = 'log' | 'snapshot';
+
+type Opened = { missing: true } | { missing: false; session: StudySession };
+
+/** Reads a study into a session: from its snapshot when asked and sound, else from the whole log. */
+export async function openSession(id: string, from: OpenFrom): Promise<Opened> {
+  const core = loadCore();
+  // the strata panel reads every counted entry from the records: a stratified study opens from its log
+  if (from === 'snapshot') {
+    const start = await readStart(id);
+    if (!start.study) return { missing: true };
+    await core;
+    if (
+      !start.study.setup.strata?.length &&
+      start.snapshot &&
+      matchesLog(start.snapshot, start.count, start.last)
+    ) {
+      const s = StudySession.fromSnapshot(start.study, start.snapshot);
+      if (s) return { missing: false, session: s };
+    }
+  }
+  const [study, records] = await Promise.all([getStudy(id), listObservations(id), core]);
+  if (!study) return { missing: true };
+  return { missing: false, session: new StudySession(study, records) };
+}
+
+let snapshotTimer: ReturnType<typeof setTimeout> | undefined;
+/** Writes the session's snapshot once saves have paused (a cache: a failure only costs a rebuild). */
+function scheduleSnapshot(s: StudySession): void {
+  clearTimeout(snapshotTimer);
+  snapshotTimer = setTimeout(() => {
+    const write = () => void writeSnapshot(s.snapshot()).catch(() => undefined);
+    const idle = (globalThis as { requestIdleCallback?: (fn: () => void) => void }).requestIdleCallback;
+    if (idle) idle(write);
+    else write();
+  }, SNAPSHOT_DELAY_MS);
+}
+/** Saves closer together than this share one snapshot write. */
+export const SNAPSHOT_DELAY_MS = 1000;
+
+/** Runs `fn` after the next frame has been painted (or soon, where there are no frames). */
+function afterFrame(fn: () => void): void {
+  if (typeof requestAnimationFrame === 'function') requestAnimationFrame(() => setTimeout(fn, 0));
+  else setTimeout(fn, 0);
+}
+
+export function useStudy(id: string, from: OpenFrom = 'log'): StudyView {
   const [session, setSession] = useState<StudySession | null>(null);
   const [loaded, setLoaded] = useState(false);
   const [missing, setMissing] = useState(false);
@@ -44,28 +110,27 @@ export function useStudy(id: string): StudyView {
   const [exported, setExported] = useState(0);
   const [version, setVersion] = useState(0);
   const ref = useRef<StudySession | null>(null);
+  /** The last seq this tab committed: a second save may commit before the first one's statistics ran. */
+  const committed = useRef(0);
 
   useEffect(() => {
     let live = true;
+    committed.current = 0;
     setLoaded(false);
     setSession(null);
     ref.current = null;
     (async () => {
       try {
-        const study = await getStudy(id);
+        // the pads need the device id (filed with each entry): read in parallel with the study
+        const [opened, upTo] = await Promise.all([openSession(id, from), exportedUpTo(id), deviceReady()]);
         if (!live) return;
-        if (!study) {
+        if (opened.missing) {
           setMissing(true);
           setLoaded(true);
           return;
         }
-        const [records, upTo] = await Promise.all([listObservations(id), exportedUpTo(id)]);
-        if (!live) return;
-        await loadCore();
-        if (!live) return;
-        const s = new StudySession(study, records);
-        ref.current = s;
-        setSession(s);
+        ref.current = opened.session;
+        setSession(opened.session);
         setExported(upTo);
         setLoaded(true);
       } catch (err) {
@@ -76,6 +141,15 @@ export function useStudy(id: string): StudyView {
     return () => {
       live = false;
     };
+  }, [id, from]);
+
+  /** Reads the whole log again (another tab wrote, or "undo" walked past the records a snapshot keeps). */
+  const reload = useCallback(async (): Promise<StudySession> => {
+    const opened = await openSession(id, 'log');
+    if (opened.missing) throw new Error('This study is no longer on this phone.');
+    ref.current = opened.session;
+    setSession(opened.session);
+    return opened.session;
   }, [id]);
 
   const apply = useCallback(
@@ -85,24 +159,32 @@ export function useStudy(id: string): StudyView {
       if ((records[0]?.seq ?? 0) !== s.lastSeq + 1) {
         // Another tab of the app wrote to this study meanwhile (a gap in seq): read the log again so that
         // n, the verdict and "undo last" cover every entry on the phone, not only this tab's. Rare; O(n).
-        s = new StudySession(s.study, await listObservations(id));
-        ref.current = s;
-        setSession(s);
+        s = await reload();
       } else {
         records.forEach((r, i) => {
           const b = s.apply(r);
           if (i === 0) before = b;
         });
+        if (s.needsLog) s = await reload();
       }
       setVersion((v) => v + 1);
+      scheduleSnapshot(s);
       return { record: records.at(-1) as ObservationRecord, before };
     },
-    [id],
+    [reload],
   );
 
   const need = () => {
     if (!ref.current) throw new Error('The study is still loading.');
     return ref.current;
+  };
+
+  const save = async (s: StudySession, entry: NewEntry) => {
+    const seq = Math.max(s.lastSeq, committed.current) + 1;
+    const rec = await addEntry(id, entry, device.get(), { seq, lock: !s.locked });
+    committed.current = rec.seq;
+    s.locked = true;
+    return rec;
   };
 
   return {
@@ -113,8 +195,24 @@ export function useStudy(id: string): StudyView {
     exported,
     version,
     add: async (entry) => {
-      need();
-      return apply([await addEntry(id, entry, device.get())]);
+      let s = need();
+      let record: ObservationRecord;
+      try {
+        record = await save(s, entry);
+      } catch (err) {
+        if (!(err instanceof StorageError) || err.code !== 'ConstraintError') throw err;
+        // another tab saved an entry with this seq first: read the log and save after it (once)
+        s = await reload();
+        setVersion((v) => v + 1);
+        record = await save(s, entry);
+      }
+      const before = s.assessment;
+      const applied = new Promise<Assessment>((resolve, reject) =>
+        afterFrame(() => {
+          apply([record]).then(() => resolve((ref.current as StudySession).assessment), reject);
+        }),
+      );
+      return { record, before, applied };
     },
     undoLast: async (reason) => {
       const last = need().lastCounted();

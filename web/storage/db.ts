@@ -1,5 +1,6 @@
 /**
- * Opening the database: cumulative `if (oldVersion < N)` upgrade steps (SCHEMA-v1.md, SCHEMA-v2.md), and
+ * Opening the database: cumulative `if (oldVersion < N)` upgrade steps (SCHEMA-v1.md, SCHEMA-v2.md,
+ * SCHEMA-v3.md), and
  * the two connection hazards
  * a field phone meets — another tab upgrading the schema (`blocking`: we close and ask for a reload) and
  * the browser dropping the connection (`terminated`: the next call reopens).
@@ -54,6 +55,11 @@ export function upgradeSteps(
     const obs = tx.objectStore('observations');
     obs.deleteIndex('byVoids');
     obs.createIndex('byVoids', 'voids', { unique: false });
+  }
+  if (oldVersion < 3) {
+    // The field screen opens from a running snapshot instead of reassessing the whole log (snapshots.ts).
+    // Nothing existing is touched; a study without a snapshot is rebuilt from its log, as before.
+    db.createObjectStore('snapshots', { keyPath: 'studyId' });
   }
 }
 

@@ -54,11 +54,14 @@ export async function ensurePersistence(ask = false): Promise<PersistState> {
       answer = 'refused';
     }
   }
-  await withWrite(async (d) => {
-    const tx = d.transaction('meta', 'readwrite', { durability: 'strict' });
-    if (first) await tx.store.put(isoWithOffset(), 'firstRunAt');
-    await tx.store.put({ at: isoWithOffset(), answer }, 'persist');
-    await tx.done;
-  });
+  // nothing is written on an ordinary start: only at first run or when the answer changed
+  const stored = (await db.get('meta', 'persist')) as PersistAnswer | undefined;
+  if (first || stored?.answer !== answer)
+    await withWrite(async (d) => {
+      const tx = d.transaction('meta', 'readwrite', { durability: 'strict' });
+      if (first) await tx.store.put(isoWithOffset(), 'firstRunAt');
+      await tx.store.put({ at: isoWithOffset(), answer }, 'persist');
+      await tx.done;
+    });
   return { answer, firstRun: first };
 }

@@ -35,6 +35,11 @@ function openWrite(db: DB) {
   return db.transaction(['observations', 'studies'], 'readwrite', { durability: 'strict' });
 }
 
+/** The tap path's transaction: the log only (the study is already locked). */
+function openAdd(db: DB) {
+  return db.transaction(['observations'], 'readwrite', { durability: 'strict' });
+}
+
 function clean(entry: NewEntry): Omit<ObservationRecord, 'id' | 'studyId' | 'seq' | 'at' | 'device'> {
   const out: Omit<ObservationRecord, 'id' | 'studyId' | 'seq' | 'at' | 'device'> = { value: entry.value };
   if (entry.censored) out.censored = true;
@@ -54,16 +59,39 @@ async function lockStudy(tx: WriteTx, studyId: string, at: string): Promise<void
   if (!study.lockedAt) await store.put({ ...study, lockedAt: at });
 }
 
-/** Appends one entry; resolves with the stored record once the transaction has committed. */
-export function addEntry(studyId: string, entry: NewEntry, device: string): Promise<ObservationRecord> {
+/**
+ * Where the next entry goes, as the open session knows it: its seq (the log's last seq + 1) and whether
+ * the study still has to be locked (its first entry). With it, saving is one `add()`.
+ */
+export interface NextSlot {
+  seq: number;
+  lock: boolean;
+}
+
+/**
+ * Appends one entry; resolves with the stored record once the transaction has committed. With `slot`
+ * (the tap path) the write is a single `add()` — plus the study's lock on its first entry — and the
+ * unique [studyId, seq] index is what guards it: if another tab took that seq meanwhile, the add fails
+ * with a ConstraintError (StorageError code 'ConstraintError') and nothing is written; the caller reloads
+ * the log and tries once more. Without `slot` the seq is read from the log in the same transaction.
+ */
+export function addEntry(
+  studyId: string,
+  entry: NewEntry,
+  device: string,
+  slot?: NextSlot,
+): Promise<ObservationRecord> {
   return withWrite(async (db) => {
-    const tx = openWrite(db);
+    const tx = slot && !slot.lock ? openAdd(db) : openWrite(db);
     return inTx(tx, async () => {
       const at = isoWithOffset();
-      const seq = await nextSeq(tx, studyId);
-      await lockStudy(tx, studyId, at);
+      const seq = slot ? slot.seq : await nextSeq(tx as WriteTx, studyId);
       const rec: ObservationRecord = { id: crypto.randomUUID(), studyId, seq, at, device, ...clean(entry) };
-      await tx.objectStore('observations').add(rec);
+      const added = tx.objectStore('observations').add(rec);
+      // when the lock below refuses, the abort rejects the add as well: that rejection is expected
+      added.catch(() => undefined);
+      if (!slot || slot.lock) await lockStudy(tx as WriteTx, studyId, at);
+      await added;
       return rec;
     });
   });

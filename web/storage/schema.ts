@@ -1,6 +1,6 @@
 /**
  * The IndexedDB schema (typed for idb). Each version's shape is frozen in its own page: SCHEMA-v1.md, and
- * SCHEMA-v2.md (the current one: `byVoids` no longer unique). A later version adds an
+ * SCHEMA-v2.md (`byVoids` no longer unique) and SCHEMA-v3.md (the current one: the `snapshots` store). A later version adds an
  * `if (oldVersion < N)` step in db.ts, a SCHEMA-vN.md, and keeps fixtures of the older versions for the
  * upgrade tests (e2e/fixtures/schema-v1.json).
  *
@@ -10,12 +10,15 @@
  * - `observations`: append-only event log (entries and voids); never put over, never deleted.
  * - `exports`: append-only log of hand-overs (what was exported up to which seq), for "not yet exported".
  * - `meta`: small key/value facts about this installation (device id, first run, persistence answer).
+ * - `snapshots` (from version 3): one running snapshot per study, a cache the field screen opens from
+ *   (snapshots.ts); replaced after saves, never the record of anything.
  */
 import type { DBSchema } from 'idb';
 import type { ObservationRecord, StudyRecord } from '../core.ts';
+import type { StoredSnapshot } from './snapshots.ts';
 
 export const DB_NAME = 'sure-enough';
-export const DB_VERSION = 2;
+export const DB_VERSION = 3;
 
 /** A study as stored: the shared StudyRecord plus the app's housekeeping (all optional, additive). */
 export interface StoredStudy extends StudyRecord {
@@ -58,4 +61,6 @@ export interface SureEnoughDB extends DBSchema {
   };
   exports: { key: string; value: ExportRecord; indexes: { byStudy: string } };
   meta: { key: MetaKey; value: string | PersistAnswer };
+  /** From version 3: keyed by studyId. */
+  snapshots: { key: string; value: StoredSnapshot };
 }
