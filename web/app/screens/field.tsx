@@ -1,7 +1,20 @@
-/** The field screen: verdict on top, the chart, the backup/position line, the entry pad at the bottom. */
+/**
+ * The field screen: the verdict on top, the entry pad at the bottom, both in view on every phone size
+ * (web/styles/field-layout.css lays it out by the screen's height in text lines, so a larger text size
+ * counts as a smaller screen). Between them a pane that scrolls: the backup and position line, the chart
+ * (inline where there is room, a panel opened with one tap where there is not), the rule's known limits
+ * and the design bar.
+ */
 import { useEffect, useMemo, useState } from 'preact/hooks';
-import type { Assessment, ObservationRecord } from '../../core.ts';
-import { entryWords, figureScale, outcomeWords, valueUnit } from '../../core-light.ts';
+import type { Assessment, ObservationRecord, StudySetup } from '../../core.ts';
+import {
+  entryWords,
+  figureScale,
+  figureUnit,
+  otherOutcomeWords,
+  outcomeWords,
+  valueUnit,
+} from '../../core-light.ts';
 import { loadedCore } from '../../core-loader.ts';
 import { DesignBar, useDesignEntry } from '../../design/field-design.tsx';
 import { settings, updateSettings } from '../../state/app-state.ts';
@@ -15,11 +28,23 @@ import { BackupLine, DemoLabel, StudyTabs, TopBar } from '../components/chrome.t
 import { CountPad, MeasurementPad, PassFailPad } from '../components/pads.tsx';
 import { VerdictPanel } from '../components/verdict.tsx';
 import { VoidDialog } from '../components/void-dialog.tsx';
+import { studySep } from '../number-style.ts';
+import { plausibilityQuestion } from '../plausible.ts';
 import { href } from '../router.ts';
 import { StudyGate } from './gate.tsx';
 
+/** Default accuracy (metres) above which a saved position carries a warning. */
+export const POSITION_WARN_M = 30;
+
 export function afterWrite(before: Assessment, after: Assessment): void {
   if (before.verdict.status !== after.verdict.status) signalVerdictChange(after.verdict.status);
+}
+
+/** The warning for a position coarser than the study's setting, or undefined. */
+export function positionWarning(accuracyM: number | undefined, setup: StudySetup): string | undefined {
+  const limit = setup.positionWarnM ?? POSITION_WARN_M;
+  if (accuracyM === undefined || !(accuracyM > limit)) return undefined;
+  return `Position saved, but coarse: ± ${Math.round(accuracyM)} m is worse than ${limit} m. Wait for a better fix or note the place.`;
 }
 
 export function FieldScreen({ id }: { id: string }) {
@@ -35,27 +60,36 @@ export function FieldScreen({ id }: { id: string }) {
 function Field({ view }: { view: StudyView }) {
   const session = view.session!;
   const study = session.study;
+  const setup = study.setup;
   const a = session.assessment;
+  const sep = studySep(setup);
   const s = useStore(settings);
   const pos = useStore(position);
   const [undo, setUndo] = useState<ObservationRecord | null>(null);
+  const [chartOpen, setChartOpen] = useState(false);
   const design = useDesignEntry(study, a);
   // the benchmark's known shortfalls for this setup (ruleWarnings); the core is loaded before this screen
-  const ruleCautions = useMemo(() => loadedCore().ruleWarnings(study.setup), [study.setup]);
+  const ruleCautions = useMemo(() => loadedCore().ruleWarnings(setup), [setup]);
   useEffect(() => {
     if (s.position) startPosition();
     return () => stopPosition();
   }, [s.position]);
 
-  const save = async (entry: NewEntry): Promise<number> => {
+  const save = async (entry: NewEntry) => {
     const fix = s.position ? currentFix() : undefined;
     const { record, before, applied } = await view.add(design.tag(fix ? { ...entry, position: fix } : entry));
     // the statistics follow the acknowledged save (after the next frame); signal a verdict change then
     void applied.then((after) => afterWrite(before, after)).catch(() => undefined);
-    return record.seq;
+    const warning = positionWarning(fix?.accuracyM, setup);
+    return warning ? { seq: record.seq, warning } : { seq: record.seq };
+  };
+  /** The values that count so far (results, not reporting limits), for the outlier question. */
+  const check = (x: number) => {
+    const earlier = session.countedValues();
+    return plausibilityQuestion(x, setup, earlier, sep);
   };
   const padOff = !view.loaded || !!study.archivedAt;
-  const kind = study.setup.kind;
+  const kind = setup.kind;
   const last = session.lastCounted();
   const undoButton = (
     <button
@@ -67,16 +101,56 @@ function Field({ view }: { view: StudyView }) {
       Undo last
     </button>
   );
+  const coarse = pos.state === 'fix' && positionWarning(pos.pos.accuracyM, setup) !== undefined;
   return (
-    <div class="screen field-screen">
-      <TopBar title={study.name} back={{ href: href.studies(), label: 'Studies' }} />
-      <StudyTabs id={study.id} current="field" />
-      <div class="field-top">
-        {study.demo && <DemoLabel />}
+    <div class={`screen field-screen ${chartOpen ? 'chart-open' : ''}`}>
+      <div class="field-head">
+        <TopBar title={study.name} back={{ href: href.studies(), label: 'Studies' }} />
+        <StudyTabs id={study.id} current="field" />
+      </div>
+      <div class="field-top" data-testid="field-pane">
         {study.archivedAt && (
           <p class="warn">This study is archived: bring it back from the list to add entries.</p>
         )}
-        <VerdictPanel a={a} study={study} paceMs={session.pace.medianMs} />
+        <VerdictPanel a={a} study={study} paceMs={session.pace.medianMs} sep={sep} />
+        {study.demo && <DemoLabel />}
+        <div class="status-row">
+          <BackupLine notExported={session.lastSeq - view.exported} />
+          <button
+            type="button"
+            class={`chip ${s.position ? 'on' : ''} ${coarse ? 'coarse' : ''}`}
+            aria-pressed={s.position}
+            onClick={() => updateSettings({ position: !s.position })}
+          >
+            {s.position ? positionText(pos) : positionText({ state: 'off' })}
+          </button>
+          <button
+            type="button"
+            class="chip chart-toggle"
+            aria-expanded={chartOpen}
+            aria-controls="field-chart"
+            onClick={() => setChartOpen(!chartOpen)}
+          >
+            Chart
+          </button>
+        </div>
+        <div class="chart-panel" id="field-chart" data-testid="chart-panel">
+          <div class="chart-panel-head">
+            <h2>Running interval</h2>
+            <button type="button" class="chip" onClick={() => setChartOpen(false)}>
+              Close chart
+            </button>
+          </div>
+          <Chart
+            series={session.series}
+            current={a}
+            target={setup.target}
+            scale={figureScale(setup)}
+            label={`Chart of ${study.name}`}
+            unit={figureUnit(setup)}
+            sep={sep}
+          />
+        </div>
         {ruleCautions.length > 0 && (
           <details class="rule-cautions" data-testid="field-rule-warnings">
             <summary>Known limits of this rule ({ruleCautions.length})</summary>
@@ -87,13 +161,6 @@ function Field({ view }: { view: StudyView }) {
             </ul>
           </details>
         )}
-        <Chart
-          series={session.series}
-          current={a}
-          target={study.setup.target}
-          scale={figureScale(study.setup)}
-          label={`Chart of ${study.name}`}
-        />
         <DesignBar
           design={design}
           study={study}
@@ -102,37 +169,37 @@ function Field({ view }: { view: StudyView }) {
           isVoided={(rid) => session.isVoided(rid)}
         />
       </div>
-      <div class="status-row">
-        <BackupLine notExported={session.lastSeq - view.exported} />
-        <button
-          type="button"
-          class={`chip ${s.position ? 'on' : ''}`}
-          aria-pressed={s.position}
-          onClick={() => updateSettings({ position: !s.position })}
-        >
-          {s.position ? positionText(pos) : positionText({ state: 'off' })}
-        </button>
+      <div class="field-entry">
+        {kind === 'measurement' && (
+          <MeasurementPad
+            disabled={padOff}
+            onSave={save}
+            check={check}
+            sep={sep}
+            undo={undoButton}
+            unit={valueUnit(setup)}
+            reportingLimit={setup.reportingLimit}
+          />
+        )}
+        {kind === 'count' && <CountPad disabled={padOff} onSave={save} check={check} undo={undoButton} />}
+        {kind === 'pass-fail' && (
+          <PassFailPad
+            disabled={padOff}
+            onSave={save}
+            undo={undoButton}
+            outcome={outcomeWords(setup)}
+            other={otherOutcomeWords(setup)}
+          />
+        )}
       </div>
-      {kind === 'measurement' && (
-        <MeasurementPad
-          disabled={padOff}
-          onSave={save}
-          undo={undoButton}
-          unit={valueUnit(study.setup)}
-          reportingLimit={study.setup.reportingLimit}
-        />
-      )}
-      {kind === 'count' && <CountPad disabled={padOff} onSave={save} undo={undoButton} />}
-      {kind === 'pass-fail' && (
-        <PassFailPad disabled={padOff} onSave={save} undo={undoButton} outcome={outcomeWords(study.setup)} />
-      )}
       {undo && (
         <VoidDialog
           mode="undo"
           target={undo}
           kind={kind}
-          outcome={outcomeWords(study.setup)}
-          describe={(r) => entryWords(r, study.setup)}
+          outcome={outcomeWords(setup)}
+          other={otherOutcomeWords(setup)}
+          describe={(r) => entryWords(r, setup, sep)}
           onCancel={() => setUndo(null)}
           onVoid={async (reason) => {
             const { before } = await view.undoLast(reason);
