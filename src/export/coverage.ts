@@ -1,19 +1,82 @@
 /**
  * The stopping rules' measured coverage, for the report's method statement.
  *
- * Source: this project's coverage benchmark, test/bench/coverage.md (written by
- * `npm run bench:coverage -- --out test/bench/coverage.md`; its grid and settings are stated there). The
- * figures below are transcribed from that file by hand; COVERAGE_SOURCE names its date and settings, and
- * test/core/export/coverage.test.ts re-reads the file and fails when a figure here disagrees with it.
+ * Source: this project's coverage benchmark (test/bench/coverage-bench.ts), whose run is committed as
+ * numbers in coverage.json beside this file (written by `npm run bench:coverage -- --out
+ * test/bench/coverage.md --json src/export/coverage.json`; the run of 2026-12-01 was converted once from
+ * its Markdown table by test/bench/coverage-md-to-json.mjs) and as a readable table with notes in
+ * test/bench/coverage.md. Nothing here is typed by hand: the figures below are summarised from the JSON.
  * A rule or data kind without a figure gives null, and the report then says "not yet measured".
  *
  * Summary per rule and data kind: the lowest and highest realised coverage (percent, as the benchmark
- * prints it, one decimal) over the grid cells of that kind whose rule column is exactly the rule's name
- * (measurement: normal and lognormal cells; count: Poisson and negative binomial; pass-fail: Bernoulli).
+ * prints it, one decimal) over the grid rows of that kind whose rule is exactly the rule's name (rows
+ * such as `naive t (raw)` or `Green (Taylor a, b)` are other methods, not the rule as offered).
  * The SPRT is summarised by its realised error rates at the two ends of the indifference zone (largest
  * over the benchmark's rows of that data kind).
  */
 import type { DataKind, RuleName } from '../model/types.ts';
+import benchmarkRun from './coverage.json' with { type: 'json' };
+
+/** One grid row of the benchmark: a cell (data model and oracle size n*) run through one rule. */
+export interface CoverageRow {
+  cell: string;
+  kind: DataKind;
+  nStar: number;
+  /** The rule's name (`naive`, `standard`, `strict`), or another method's label (`standard t (raw)`). */
+  rule: string;
+  coveragePercent: number;
+  /** 95 % Monte Carlo margin, 1.96·√(c(1−c)/R), in points. */
+  mcMarginPercent: number;
+  meanNOverNStar: number;
+  nP10: number;
+  nP50: number;
+  nP90: number;
+  atMinPercent: number;
+  cappedPercent: number;
+  /** PASS, within MC, SHORT, n/a or empty (no goal for this rule). */
+  goal: string;
+}
+
+/** One limit-decision row: the SPRT's realised error rates at the ends of the indifference zone. */
+export interface SprtRow {
+  data: string;
+  kind: DataKind;
+  theta0: number;
+  theta1: number;
+  alpha: number;
+  beta: number;
+  /** Realised rate of "above limit" at θ₀ and of "below limit" at θ₁, in percent. */
+  wrongAbovePercent: number;
+  wrongBelowPercent: number;
+  meanN0: number;
+  meanN1: number;
+  /** Wald's average sample number at θ₀ and θ₁ (null where the benchmark has none). */
+  waldAsn0: number | null;
+  waldAsn1: number | null;
+  /** The truncation point, or null when it comes from the pilot (measurements). */
+  truncatedAt: number | null;
+  goal: string;
+}
+
+/** What the benchmark writes (coverage.json). */
+export interface CoverageRun {
+  benchmark: string;
+  /** The readable table of the same run (with notes). */
+  table: string;
+  date: string;
+  settings: {
+    level: number;
+    sided: string;
+    replicatesPerCell: number;
+    min: number;
+    capTimesNStar: number;
+    standardAlphaRatio: Record<string, number>;
+  };
+  grid: CoverageRow[];
+  sprt: SprtRow[];
+}
+
+export const COVERAGE_RUN: CoverageRun = benchmarkRun as CoverageRun;
 
 export interface CoverageFigure {
   rule: Exclude<RuleName, 'sprt'>;
@@ -37,70 +100,66 @@ export interface SprtFigure {
   betaPercent: number;
 }
 
-/** Which benchmark run the figures come from (null date: not yet transcribed). Transcribed 2026-12-01. */
+/** Which benchmark run the figures come from. */
 export const COVERAGE_SOURCE: {
   file: string;
   date: string | null;
   nominalPercent: number;
   replicatesPerCell: number | null;
 } = {
-  file: 'test/bench/coverage.md',
-  date: '2026-12-01',
-  nominalPercent: 95,
-  replicatesPerCell: 10000,
+  file: COVERAGE_RUN.table,
+  date: COVERAGE_RUN.date,
+  nominalPercent: Math.round(COVERAGE_RUN.settings.level * 1000) / 10,
+  replicatesPerCell: COVERAGE_RUN.settings.replicatesPerCell,
 };
 
-/** From test/bench/coverage.md of 2026-12-01 (R = 10,000 per cell), main table. */
-export const MEASURED_COVERAGE: readonly CoverageFigure[] = [
-  { rule: 'naive', kind: 'measurement', cells: 8, minPercent: 91.3, maxPercent: 94.5 },
-  { rule: 'standard', kind: 'measurement', cells: 8, minPercent: 93.7, maxPercent: 96.1 },
-  { rule: 'strict', kind: 'measurement', cells: 8, minPercent: 91.0, maxPercent: 95.0 },
-  { rule: 'naive', kind: 'count', cells: 6, minPercent: 89.2, maxPercent: 95.6 },
-  { rule: 'standard', kind: 'count', cells: 6, minPercent: 92.7, maxPercent: 96.2 },
-  { rule: 'strict', kind: 'count', cells: 6, minPercent: 87.2, maxPercent: 95.7 },
-  { rule: 'naive', kind: 'pass-fail', cells: 6, minPercent: 93.8, maxPercent: 97.6 },
-  { rule: 'standard', kind: 'pass-fail', cells: 6, minPercent: 94.9, maxPercent: 97.7 },
-  { rule: 'strict', kind: 'pass-fail', cells: 6, minPercent: 99.9, maxPercent: 100.0 },
-];
+const KINDS: readonly DataKind[] = ['measurement', 'count', 'pass-fail'];
+const RULES = ['naive', 'standard', 'strict'] as const;
 
-/** From test/bench/coverage.md of 2026-12-01, "Limit decision (Wald SPRT)" table. */
-export const SPRT_ERROR_RATES: readonly SprtFigure[] = [
-  {
-    kind: 'pass-fail',
-    rows: 1,
-    wrongAbovePercent: 3.25,
-    wrongBelowPercent: 9.97,
-    alphaPercent: 5,
-    betaPercent: 10,
-  },
-  {
-    kind: 'count',
-    rows: 2,
-    wrongAbovePercent: 2.93,
-    wrongBelowPercent: 7.79,
-    alphaPercent: 5,
-    betaPercent: 10,
-  },
-  {
-    kind: 'measurement',
-    rows: 1,
-    wrongAbovePercent: 1.69,
-    wrongBelowPercent: 10.69,
-    alphaPercent: 5,
-    betaPercent: 10,
-  },
-];
+/** Per rule and data kind: lowest and highest coverage over the grid rows of exactly that rule. */
+export const MEASURED_COVERAGE: readonly CoverageFigure[] = RULES.flatMap((rule) =>
+  KINDS.flatMap((kind) => {
+    const xs = COVERAGE_RUN.grid
+      .filter((r) => r.rule === rule && r.kind === kind)
+      .map((r) => r.coveragePercent);
+    return xs.length === 0
+      ? []
+      : [{ rule, kind, cells: xs.length, minPercent: Math.min(...xs), maxPercent: Math.max(...xs) }];
+  }),
+);
+
+/** Per data kind: the largest realised SPRT error rates over the benchmark's rows of that kind. */
+export const SPRT_ERROR_RATES: readonly SprtFigure[] = KINDS.flatMap((kind) => {
+  const rows = COVERAGE_RUN.sprt.filter((r) => r.kind === kind);
+  if (rows.length === 0) return [];
+  return [
+    {
+      kind,
+      rows: rows.length,
+      wrongAbovePercent: Math.max(...rows.map((r) => r.wrongAbovePercent)),
+      wrongBelowPercent: Math.max(...rows.map((r) => r.wrongBelowPercent)),
+      alphaPercent: Math.round(Math.max(...rows.map((r) => r.alpha)) * 1e8) / 1e6,
+      betaPercent: Math.round(Math.max(...rows.map((r) => r.beta)) * 1e8) / 1e6,
+    },
+  ];
+});
+
+/** The oracle sizes n* of the grid rows of one data kind, ascending ("targets needing about …"). */
+export function gridSizes(kind: DataKind): number[] {
+  return [...new Set(COVERAGE_RUN.grid.filter((r) => r.kind === kind).map((r) => r.nStar))].sort(
+    (a, b) => a - b,
+  );
+}
 
 /**
  * The benchmark's grid cells per data kind, in words (as coverage.md names them; "targets needing about
  * N entries" = the cells' n*, the known-σ size).
  */
+const sizes = (kind: DataKind) => `targets needing about ${gridSizes(kind).join(' and ')} entries`;
 export const GRID_WORDS: Record<DataKind, string> = {
-  measurement:
-    'normal data, and lognormal data (CV 0.5, 1, 2) with Cox’s interval; targets needing about 25 and 100 entries',
-  count:
-    'Poisson λ = 2, negative binomial m = 2 with k = 0.5 and 2; targets needing about 25 and 100 entries',
-  'pass-fail': 'p = 0.02, 0.1 and 0.5; targets needing about 100 and 400 entries',
+  measurement: `normal data, and lognormal data (CV 0.5, 1, 2) with Cox’s interval; ${sizes('measurement')}`,
+  count: `Poisson λ = 2, negative binomial m = 2 with k = 0.5 and 2; ${sizes('count')}`,
+  'pass-fail': `p = 0.02, 0.1 and 0.5; ${sizes('pass-fail')}`,
 };
 
 const KIND_WORDS: Record<DataKind, string> = {

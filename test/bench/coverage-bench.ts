@@ -15,10 +15,14 @@
  * r = z·CV/√n* (lognormal, counts), precision D = CV/√n* (Green / Kuno cells).
  *
  * Flags: --r N (replicates per cell, default 10000: about 5 min on this 2-core machine; 20000 doubles it), --quick (R = 2000), --out FILE (markdown),
- * --calibrate (scan the standard rule's α ratio per data kind instead of the grid).
+ * --json FILE (the same figures as numbers, the shape CoverageRun of src/export/coverage.ts, which the
+ * report reads from src/export/coverage.json), --calibrate (scan the standard rule's α ratio per data kind
+ * instead of the grid). A committed run is refreshed with
+ * `npm run bench:coverage -- --out test/bench/coverage.md --json src/export/coverage.json`.
  */
 import { writeFileSync } from 'node:fs';
 import { replaySequence } from '../../src/assess/index.ts';
+import type { CoverageRow, CoverageRun, SprtRow } from '../../src/export/coverage.ts';
 import type { AnalysisSetup, RuleName } from '../../src/model/types.ts';
 import { normalQuantile } from '../../src/stats/distributions.ts';
 import { sprtMaxN, sprtModelOf } from '../../src/stop/sprt.ts';
@@ -38,6 +42,11 @@ const flag = (name: string): string | undefined => {
 };
 const R = args.includes('--quick') ? 2000 : Number(flag('r') ?? 10000);
 const OUT = flag('out');
+const JSON_OUT = flag('json');
+/** The figures as printed (same rounding), for --json. */
+const gridRows: CoverageRow[] = [];
+const sprtRows: SprtRow[] = [];
+const round = (x: number, d: number) => Number(x.toFixed(d));
 const LEVEL = 0.95;
 const Z = normalQuantile(1 - (1 - LEVEL) / 2);
 
@@ -246,6 +255,21 @@ function grid(): string {
       print(
         `| ${cell.name} | ${cell.nStar} | ${s.label} | ${pct(s.coverage)} ± ${pct(s.margin)} | ${s.meanRatio.toFixed(2)} | ${s.p10}/${s.p50}/${s.p90} | ${pct(s.atMin)} % | ${pct(s.capped)} % | ${goal} |`,
       );
+      gridRows.push({
+        cell: cell.name,
+        kind: cell.base.kind,
+        nStar: cell.nStar,
+        rule: s.label,
+        coveragePercent: Number(pct(s.coverage)),
+        mcMarginPercent: Number(pct(s.margin)),
+        meanNOverNStar: round(s.meanRatio, 2),
+        nP10: s.p10,
+        nP50: s.p50,
+        nP90: s.p90,
+        atMinPercent: Number(pct(s.atMin)),
+        cappedPercent: Number(pct(s.capped)),
+        goal,
+      });
     }
     process.stderr.write(`  (${cell.name} n*=${cell.nStar}: ${((Date.now() - t0) / 1000).toFixed(1)} s)\n`);
   }
@@ -338,6 +362,23 @@ function grid(): string {
     print(
       `| ${c.name} | ${c.t0} – ${c.t1} | 0.05, 0.10 | ${pct(r0.wrong, 2)} % | ${pct(r1.wrong, 2)} % | ${r0.meanN.toFixed(1)} / ${r1.meanN.toFixed(1)} | ${asn} | ${trunc} | ${goal} |`,
     );
+    const asns = asn === '–' ? [null, null] : asn.split(' / ').map(Number);
+    sprtRows.push({
+      data: c.name,
+      kind: c.kind,
+      theta0: c.t0,
+      theta1: c.t1,
+      alpha: 0.05,
+      beta: 0.1,
+      wrongAbovePercent: Number(pct(r0.wrong, 2)),
+      wrongBelowPercent: Number(pct(r1.wrong, 2)),
+      meanN0: round(r0.meanN, 1),
+      meanN1: round(r1.meanN, 1),
+      waldAsn0: asns[0] ?? null,
+      waldAsn1: asns[1] ?? null,
+      truncatedAt: /^\d+$/.test(trunc) ? Number(trunc) : null,
+      goal,
+    });
   }
   print('');
   print(`Shortfalls: ${shortfalls.length === 0 ? 'none' : ''}`);
@@ -390,5 +431,23 @@ else {
       '',
     ].join('\n');
     writeFileSync(OUT, `${header}\n${body}\n`);
+  }
+  if (JSON_OUT) {
+    const run: CoverageRun = {
+      benchmark: 'test/bench/coverage-bench.ts',
+      table: OUT ?? 'test/bench/coverage.md',
+      date: new Date().toISOString().slice(0, 10),
+      settings: {
+        level: LEVEL,
+        sided: 'two',
+        replicatesPerCell: R,
+        min: 10,
+        capTimesNStar: 10,
+        standardAlphaRatio: { ...STANDARD_ALPHA_RATIO },
+      },
+      grid: gridRows,
+      sprt: sprtRows,
+    };
+    writeFileSync(JSON_OUT, `${JSON.stringify(run, null, 2)}\n`);
   }
 }
