@@ -37,7 +37,7 @@ export function demoScenarios(): DemoScenario[] {
     {
       key: 'count',
       name: 'Demo: seedlings in 1 m² plots (invented)',
-      blurb: 'Seedlings counted per plot; target ± 30 % of the mean at 90 %. Ten invented plots are in.',
+      blurb: 'Oak seedlings counted per plot; target ± 30 % of the mean at 90 %. Ten invented plots are in.',
       setup: {
         kind: 'count',
         unit: '1',
@@ -49,6 +49,9 @@ export function demoScenarios(): DemoScenario[] {
         min: 10,
         target: { kind: 'relative', value: 0.3 },
         outcomeName: 'seedlings',
+        // what the Darwin Core tables need, so the demo exports them from the phone
+        taxon: 'Quercus robur',
+        samplingProtocol: '1 m2 quadrats, every oak seedling under 50 cm counted (invented for the demo)',
       },
       values: [3, 0, 5, 2, 7, 1, 0, 4, 6, 2],
       gapMs: 140_000,

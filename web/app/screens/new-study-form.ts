@@ -13,6 +13,7 @@ import type { DataKind, RuleName, StudySetup, Target } from '../../core.ts';
 import { formatStrata, parseStrata, SETUP_DEFAULTS, setupProblems } from '../../core-light.ts';
 import { parseMeasurement } from '../../input/parse.ts';
 import type { StoredStudy } from '../../storage/schema.ts';
+import { localeSeparator } from '../number-style.ts';
 
 export type TargetKind = Target['kind'];
 export interface Form {
@@ -45,6 +46,18 @@ export interface Form {
   strataCosts: string;
   /** Planning CV for the limit decision's figures on measurements (setup screen only, not stored). */
   planningCv: string;
+  /** Interval method of measurements: '' leaves the core's default (Student t). */
+  method: '' | 't' | 'cox';
+  iwaoAlpha: string;
+  iwaoBeta: string;
+  taxon: string;
+  samplingProtocol: string;
+  otherOutcome: string;
+  /** '' follows the phone's locale when the study is started. */
+  sep: '' | '.' | ',';
+  rangeLow: string;
+  rangeHigh: string;
+  positionWarnM: string;
   ack: boolean;
 }
 
@@ -78,6 +91,16 @@ export const EMPTY: Form = {
   strata: '',
   strataCosts: '',
   planningCv: '1',
+  method: '',
+  iwaoAlpha: '',
+  iwaoBeta: '',
+  taxon: '',
+  samplingProtocol: '',
+  otherOutcome: '',
+  sep: '',
+  rangeLow: '',
+  rangeHigh: '',
+  positionWarnM: '30',
   ack: false,
 };
 
@@ -123,6 +146,16 @@ export function fromStudy(s: StoredStudy, mode: 'duplicate' | 'change'): Form {
     taylorB: str(st.planning?.taylorB),
     strata: st.strata ? formatStrata(st.strata).strata : '',
     strataCosts: st.strata ? (formatStrata(st.strata).costs ?? '') : '',
+    method: st.method === 't' || st.method === 'cox' ? st.method : '',
+    iwaoAlpha: str(st.planning?.iwaoAlpha),
+    iwaoBeta: str(st.planning?.iwaoBeta),
+    taxon: st.taxon ?? '',
+    samplingProtocol: st.samplingProtocol ?? '',
+    otherOutcome: st.otherOutcomeName ?? '',
+    sep: st.decimalSeparator ?? '',
+    rangeLow: str(st.expectedRange?.low),
+    rangeHigh: str(st.expectedRange?.high),
+    positionWarnM: str(st.positionWarnM) || EMPTY.positionWarnM,
   };
 }
 
@@ -155,13 +188,23 @@ const LABEL: Record<keyof Form, string> = {
   strata: 'Strata',
   strataCosts: 'Effort per stratum',
   planningCv: 'Expected spread',
+  method: 'Method',
+  iwaoAlpha: 'Iwao α',
+  iwaoBeta: 'Iwao β',
+  taxon: 'Scientific name',
+  samplingProtocol: 'How it was counted',
+  otherOutcome: 'The other result',
+  sep: 'Decimal separator',
+  rangeLow: 'Expected lowest value',
+  rangeHigh: 'Expected highest value',
+  positionWarnM: 'Warn when the position is worse than',
   ack: 'Cautions',
 };
 
 /** The setup fields each form field sets (a path not listed falls back to its first member's field). */
 const FIELD_OF: Record<string, keyof Form> = {
   kind: 'kind',
-  method: 'kind',
+  method: 'method',
   sided: 'level',
   target: 'targetKind',
   'target.kind': 'targetKind',
@@ -177,6 +220,15 @@ const FIELD_OF: Record<string, keyof Form> = {
   'planning.negBinomialK': 'nbK',
   'planning.taylorA': 'taylorA',
   'planning.taylorB': 'taylorB',
+  'planning.iwaoAlpha': 'iwaoAlpha',
+  'planning.iwaoBeta': 'iwaoBeta',
+  samplingProtocol: 'samplingProtocol',
+  otherOutcomeName: 'otherOutcome',
+  decimalSeparator: 'sep',
+  expectedRange: 'rangeLow',
+  'expectedRange.low': 'rangeLow',
+  'expectedRange.high': 'rangeHigh',
+  positionWarnM: 'positionWarnM',
   sprt: 'sprtAlpha',
   'sprt.alpha': 'sprtAlpha',
   'sprt.beta': 'sprtBeta',
@@ -189,7 +241,7 @@ const FIELD_OF: Record<string, keyof Form> = {
   unit: 'unit',
   plotAreaUnit: 'plotAreaUnit',
   outcomeName: 'outcome',
-  taxon: 'outcome',
+  taxon: 'taxon',
   reportingLimit: 'reportingLimit',
 };
 
@@ -234,10 +286,20 @@ export function buildSetup(f: Form): { setup: StudySetup; name: string } | { err
     setup.plotArea = num('plotArea');
     setup.plotAreaUnit = f.plotAreaUnit.trim() || 'm2';
     if (f.outcome.trim()) setup.outcomeName = f.outcome.trim();
+    if (f.taxon.trim()) setup.taxon = f.taxon.trim();
+    if (f.samplingProtocol.trim()) setup.samplingProtocol = f.samplingProtocol.trim();
   } else {
     if (f.outcome.trim()) setup.outcomeName = f.outcome.trim();
     else e.outcome = 'Counted outcome: required (e.g. defect, leak, missing label).';
+    if (f.otherOutcome.trim()) setup.otherOutcomeName = f.otherOutcome.trim();
   }
+  if (f.kind === 'measurement' && f.method) setup.method = f.method;
+  if (f.kind !== 'pass-fail') {
+    const range = given({ low: num('rangeLow', true), high: num('rangeHigh', true) });
+    if (Object.keys(range).length) setup.expectedRange = range;
+  }
+  setup.decimalSeparator = f.sep || localeSeparator();
+  setup.positionWarnM = num('positionWarnM', true);
   const tv = num('targetValue');
   if (tv !== undefined) {
     if (f.targetKind === 'limit') {
@@ -270,6 +332,8 @@ export function buildSetup(f: Form): { setup: StudySetup; name: string } | { err
       negBinomialK: num('nbK', true),
       taylorA: num('taylorA', true),
       taylorB: num('taylorB', true),
+      iwaoAlpha: num('iwaoAlpha', true),
+      iwaoBeta: num('iwaoBeta', true),
     });
     if (Object.keys(planning).length) setup.planning = planning;
   }

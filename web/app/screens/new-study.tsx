@@ -15,6 +15,7 @@ import { CAUTIONS } from '../cautions.ts';
 import { TopBar } from '../components/chrome.tsx';
 import { RulePreview } from '../components/rule-preview.tsx';
 import { go, href } from '../router.ts';
+import { IwaoFields, KindExtras, NumberExtras } from './new-study-extras.tsx';
 import {
   buildSetup,
   EMPTY,
@@ -209,6 +210,7 @@ export function NewStudyScreen(props: { from?: string; mode?: 'duplicate' | 'cha
                 ? 'e.g. seedlings, burrows, snails.'
                 : 'The result you count, e.g. “defect”. The other result is “no defect”.',
           })}
+        <KindExtras f={f} set={set} text={text} errors={errors} />
         {radios(
           'targetKind',
           'Target: when is it enough?',
@@ -302,8 +304,10 @@ export function NewStudyScreen(props: { from?: string; mode?: 'duplicate' | 'cha
               mode: 'decimal',
               help: 'Variance = a · mean^b, from earlier surveys.',
             })}
+            <IwaoFields text={text} />
           </details>
         )}
+        <NumberExtras f={f} set={set} text={text} errors={errors} />
         <fieldset class={`cautions-ack ${errors.ack ? 'invalid' : ''}`}>
           <legend>Cautions</legend>
           <ul class="cautions">
