@@ -4,7 +4,6 @@
  * Outside checks: Python's csv module reads the CSV export; `assess` on the union of both phones' values
  * gives the same summary as the merged bundle (the core assess is the reference the app also uses).
  */
-import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -16,6 +15,10 @@ import { parseBundle } from '../../src/bundle/validate.ts';
 import { commands } from '../../src/cli/commands.ts';
 import { type FlagSpec, parseArgs, UsageError } from '../../src/cli/io.ts';
 import { mergeFiles } from '../../src/cli/merge.ts';
+import { pythonOracle } from '../fixtures/python-oracle.ts';
+
+// Python's csv module, run once and committed (test/fixtures/python-handover.json)
+const python = pythonOracle('handover');
 
 const dir = mkdtempSync(join(tmpdir(), 'handover-'));
 const fixture = (name: string) => new URL(`../fixtures/${name}`, import.meta.url).pathname;
@@ -182,13 +185,9 @@ describe('bundle: per-entry columns and field designs', () => {
     expect(await run('bundle', [write('lab-full2.csv', LAB), ...FLAGS, '--device', 'lab'])).toBe(out);
     // and the CSV export gives the cells back, read by Python's csv module
     const rows: string[][] = JSON.parse(
-      execFileSync(
-        'python3',
-        [
-          '-c',
-          'import sys,csv,io,json; print(json.dumps(list(csv.reader(io.StringIO(sys.stdin.read(), newline="")))))',
-        ],
-        { input: await run('export', ['--format', 'csv', write('lab-full.json', out)]), encoding: 'utf8' },
+      python(
+        'import sys,csv,io,json; print(json.dumps(list(csv.reader(io.StringIO(sys.stdin.read(), newline="")))))',
+        await run('export', ['--format', 'csv', write('lab-full.json', out)]),
       ),
     );
     const col = (name: string) => rows.slice(1).map((x) => x[rows[0]!.indexOf(name)]);
@@ -386,16 +385,9 @@ describe('merge', () => {
   it('export csv is read back by Python csv', async () => {
     const csv = await run('export', ['--format', 'csv', M]);
     const rows: string[][] = JSON.parse(
-      execFileSync(
-        'python3',
-        [
-          '-c',
-          'import sys,csv,io,json; print(json.dumps(list(csv.reader(io.StringIO(sys.stdin.read(), newline="")))))',
-        ],
-        {
-          input: csv,
-          encoding: 'utf8',
-        },
+      python(
+        'import sys,csv,io,json; print(json.dumps(list(csv.reader(io.StringIO(sys.stdin.read(), newline="")))))',
+        csv,
       ),
     );
     expect(rows).toHaveLength(18);

@@ -5,14 +5,18 @@
  * SHA256.pdf (one-block "abc", two-block 448-bit message), FIPS 180-4 (2015) §6.2; the empty-string and
  * one-million-"a" digests are the widely published NIST test values (evidence: memory, confirmed
  * with `python3 -c "import hashlib; print(hashlib.sha256(b'abc').hexdigest())"` and likewise).
- * A second, independent check compares with Python's hashlib (outside the project) on UTF-8 text
+ * A second, independent check compares with Python's hashlib (outside the project; its answers committed
+ * in test/fixtures/python-sha256.json by test/fixtures/python-oracle.ts) on UTF-8 text
  * including non-ASCII, astral characters and lengths around the 55/56/64-byte padding edges, and a lone
  * surrogate (WHATWG Encoding encodes it as U+FFFD; Python refuses to encode one, so Python is given the
  * replacement character itself).
  */
-import { execFileSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { sha256Hex } from '../../../src/bundle/digest.ts';
+import { pythonOracle } from '../../fixtures/python-oracle.ts';
+
+// Python's hashlib, run once and committed (test/fixtures/python-sha256.json)
+const python = pythonOracle('sha256');
 
 describe('sha256Hex — NIST vectors', () => {
   it('"abc" (one block)', async () => {
@@ -51,26 +55,16 @@ describe('sha256Hex — against Python hashlib on UTF-8 text', () => {
     'x'.repeat(119),
     '日本語のメモ\r\n"quoted", comma',
   ];
-  const py = execFileSync(
-    'python3',
-    [
-      '-c',
-      'import sys,json,hashlib\nfor s in json.load(sys.stdin): print(hashlib.sha256(s.encode("utf-8")).hexdigest())',
-    ],
-    { input: JSON.stringify(samples), encoding: 'utf8' },
+  const py = python(
+    'import sys,json,hashlib\nfor s in json.load(sys.stdin): print(hashlib.sha256(s.encode("utf-8")).hexdigest())',
+    JSON.stringify(samples),
   )
     .trim()
     .split('\n');
   it('a lone surrogate is hashed as U+FFFD (WHATWG Encoding)', async () => {
     expect(await sha256Hex('a\ud800b')).toBe(await sha256Hex('a\ufffdb'));
     expect(await sha256Hex('a\ufffdb')).toBe(
-      execFileSync(
-        'python3',
-        ['-c', 'import hashlib; print(hashlib.sha256("a\\ufffdb".encode()).hexdigest())'],
-        {
-          encoding: 'utf8',
-        },
-      ).trim(),
+      python('import hashlib; print(hashlib.sha256("a\\ufffdb".encode()).hexdigest())').trim(),
     );
   });
   it('bytes are hashed as given', async () => {

@@ -5,12 +5,15 @@
  * number forms (RFC 8785 §3.2.3 sorts by UTF-16 units, Python by code points); RFC 3339 §5.6 date-time
  * grammar for times.
  */
-import { execFileSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { bundleChecksum, makeBundle, serializeBundle } from '../../../src/bundle/bundle.ts';
 import { canonicalJson } from '../../../src/bundle/canonical.ts';
 import { isIsoTimeWithOffset, parseBundle } from '../../../src/bundle/validate.ts';
+import { pythonOracle } from '../../fixtures/python-oracle.ts';
 import { entries, study, uuid, voidOf } from './make.ts';
+
+// Python's json and hashlib, run once and committed (test/fixtures/python-bundle-validate.json)
+const python = pythonOracle('bundle-validate');
 
 async function good() {
   const st = study();
@@ -50,13 +53,9 @@ describe('canonicalJson (RFC 8785) vs Python json.dumps(sort_keys=True)', () => 
       alpha: 'quote " backslash \\ newline \n tab \t é 🌿',
       Mixed: { B: 1, a: 2, _: 3 },
     };
-    const py = execFileSync(
-      'python3',
-      [
-        '-c',
-        'import sys,json; print(json.dumps(json.load(sys.stdin), sort_keys=True, separators=(",",":"), ensure_ascii=False), end="")',
-      ],
-      { input: JSON.stringify(value), encoding: 'utf8' },
+    const py = python(
+      'import sys,json; print(json.dumps(json.load(sys.stdin), sort_keys=True, separators=(",",":"), ensure_ascii=False), end="")',
+      JSON.stringify(value),
     );
     // Python prints 1e-07 where ECMAScript prints 1e-7 (RFC 8785 §3.2.2.3 follows ECMAScript).
     expect(canonicalJson(value)).toBe(py.replace('1e-07', '1e-7'));
@@ -248,13 +247,9 @@ describe('parseBundle', () => {
 describe('checksum reproduced outside the app (the Python recipe in src/bundle/SCHEMA.md)', () => {
   it('Python json + hashlib give the same SHA-256', async () => {
     const b = await good();
-    const py = execFileSync(
-      'python3',
-      [
-        '-c',
-        "import sys, json, hashlib\nb = json.loads(sys.stdin.buffer.read().decode('utf-8'))\ntext = json.dumps({'study': b['study'], 'events': b['events']}, sort_keys=True, separators=(',', ':'), ensure_ascii=False)\nprint(hashlib.sha256(text.encode('utf-8')).hexdigest(), end='')",
-      ],
-      { input: serializeBundle(b), encoding: 'utf8' },
+    const py = python(
+      "import sys, json, hashlib\nb = json.loads(sys.stdin.buffer.read().decode('utf-8'))\ntext = json.dumps({'study': b['study'], 'events': b['events']}, sort_keys=True, separators=(',', ':'), ensure_ascii=False)\nprint(hashlib.sha256(text.encode('utf-8')).hexdigest(), end='')",
+      serializeBundle(b),
     );
     expect(py).toBe(b.checksum.value);
   });

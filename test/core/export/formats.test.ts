@@ -6,7 +6,6 @@
  * - Darwin Core term names checked against the TDWG term list read from the tdwg/dwc repository
  *   (test/fixtures/handover-dwc-terms.json names the file and commit).
  */
-import { execFileSync } from 'node:child_process';
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { makeBundle } from '../../../src/bundle/bundle.ts';
@@ -15,7 +14,11 @@ import { DWC_EVENT_TERMS, DWC_OCCURRENCE_TERMS, dwcTables } from '../../../src/e
 import { entriesGeoJson, geoJsonText } from '../../../src/export/geojson.ts';
 import { csvField } from '../../../src/export/rfc4180.ts';
 import { unitSlug } from '../../../src/export/units.ts';
+import { pythonOracle } from '../../fixtures/python-oracle.ts';
 import { entries, study, uuid, voidOf } from '../bundle/make.ts';
+
+// Python's csv module, run once and committed (test/fixtures/python-formats.json)
+const python = pythonOracle('formats');
 
 const awkward = [
   'plain',
@@ -60,13 +63,9 @@ async function measurementBundle() {
 const COUNT = await countBundle();
 
 function pythonCsv(text: string): string[][] {
-  const out = execFileSync(
-    'python3',
-    [
-      '-c',
-      'import sys,csv,io,json\nraw=sys.stdin.buffer.read().decode("utf-8")\nprint(json.dumps(list(csv.reader(io.StringIO(raw, newline=""), strict=True))))',
-    ],
-    { input: Buffer.from(text, 'utf8'), encoding: 'utf8' },
+  const out = python(
+    'import sys,csv,io,json\nraw=sys.stdin.buffer.read().decode("utf-8")\nprint(json.dumps(list(csv.reader(io.StringIO(raw, newline=""), strict=True))))',
+    text,
   );
   return JSON.parse(out);
 }

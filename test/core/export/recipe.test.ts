@@ -6,7 +6,6 @@
  * stratified, clustered, stratified-and-clustered, non-detect (Kaplan–Meier and half-limit), composite,
  * SPRT and simple studies. Evidence: derived (the report and `assess` must agree bit for bit).
  */
-import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -19,7 +18,11 @@ import { type FlagSpec, parseArgs } from '../../../src/cli/io.ts';
 import { assessFlags, assessInputCsv, recipeGaps, shellWord } from '../../../src/export/recipe.ts';
 import { reportHtml, runningInterval } from '../../../src/export/report.ts';
 import type { ObservationRecord, StudySetup } from '../../../src/model/records.ts';
+import { pythonOracle } from '../../fixtures/python-oracle.ts';
 import { entries, study, uuid, voidOf } from '../bundle/make.ts';
+
+// Python's shlex, html and csv, run once and committed (test/fixtures/python-recipe.json)
+const python = pythonOracle('recipe');
 
 const dir = mkdtempSync(join(tmpdir(), 'recipe-'));
 
@@ -180,13 +183,9 @@ const CASES: [string, Bundle, string][] = [
 /** The recipe's commands as argv words: html.unescape + shlex.split in Python. */
 function recipeWords(html: string): string[][] {
   const codes = [...html.matchAll(/<code class="recipe">([\s\S]*?)<\/code>/g)].map((m) => m[1]!);
-  const out = execFileSync(
-    'python3',
-    [
-      '-c',
-      'import sys,json,html,shlex\nprint(json.dumps([shlex.split(html.unescape(c)) for c in json.load(sys.stdin)]))',
-    ],
-    { input: JSON.stringify(codes), encoding: 'utf8' },
+  const out = python(
+    'import sys,json,html,shlex\nprint(json.dumps([shlex.split(html.unescape(c)) for c in json.load(sys.stdin)]))',
+    JSON.stringify(codes),
   );
   return JSON.parse(out);
 }
@@ -317,13 +316,9 @@ describe('the running chart uses the design-aware assessment', () => {
 });
 
 function pythonCsv(text: string): string[][] {
-  const out = execFileSync(
-    'python3',
-    [
-      '-c',
-      'import sys,csv,io,json\nraw=sys.stdin.buffer.read().decode("utf-8")\nprint(json.dumps(list(csv.reader(io.StringIO(raw, newline=""), strict=True))))',
-    ],
-    { input: Buffer.from(text, 'utf8'), encoding: 'utf8' },
+  const out = python(
+    'import sys,csv,io,json\nraw=sys.stdin.buffer.read().decode("utf-8")\nprint(json.dumps(list(csv.reader(io.StringIO(raw, newline=""), strict=True))))',
+    text,
   );
   return JSON.parse(out);
 }

@@ -4,14 +4,17 @@
  * text), the page has no script and no external resource, and its figures are those of `assess` on the
  * counted entries.
  */
-import { execFileSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { assess } from '../../../src/assess/index.ts';
 import { makeBundle } from '../../../src/bundle/bundle.ts';
 import { pointsOf } from '../../../src/bundle/events.ts';
 import { coverageStatement } from '../../../src/export/coverage.ts';
 import { assessFlags, escapeHtml, reportHtml, runningInterval } from '../../../src/export/report.ts';
+import { pythonOracle } from '../../fixtures/python-oracle.ts';
 import { entries, study, uuid, voidOf } from '../bundle/make.ts';
+
+// Python's html.parser, run once and committed (test/fixtures/python-report.json)
+const python = pythonOracle('report');
 
 const HOSTILE = {
   name: '<script>alert("name")</script>',
@@ -44,11 +47,8 @@ async function hostileBundle() {
 
 /** Python html.parser: start tags with their attributes, and all text. */
 function pyParse(html: string): { tags: [string, [string, string | null][]][]; text: string } {
-  const out = execFileSync(
-    'python3',
-    [
-      '-c',
-      `import sys, json
+  const out = python(
+    `import sys, json
 from html.parser import HTMLParser
 class P(HTMLParser):
     def __init__(self):
@@ -58,8 +58,7 @@ class P(HTMLParser):
     def handle_data(self, data): self.text.append(data)
 p=P(); p.feed(sys.stdin.buffer.read().decode('utf-8')); p.close()
 print(json.dumps({'tags': p.tags, 'text': ''.join(p.text)}))`,
-    ],
-    { input: Buffer.from(html, 'utf8'), encoding: 'utf8', maxBuffer: 1 << 24 },
+    html,
   );
   return JSON.parse(out);
 }
