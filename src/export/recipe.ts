@@ -15,8 +15,11 @@
  * src/cli/README.md, "Input"). The flags are written for a POSIX shell: any word other than letters,
  * digits and `_ - . , : / = + @ %` is single-quoted (POSIX.1-2017, Shell Command Language §2.2.2).
  *
- * `recipeGaps` lists what the command line cannot express (e.g. a stratum's number of units, a name with
- * leading spaces); the report then says the recipe is not exact, and why.
+ * `recipeGaps` lists what the values file and the flags cannot express (e.g. a stratum's number of units,
+ * a name with leading spaces); the report then says the recipe is not exact, and why.
+ *
+ * The exact route in every case is `sure-enough assess study.bundle.json` (`bundleCommand`): `assess`
+ * reads the bundle itself and uses its setup, so nothing has to pass through flags or a values file.
  */
 import type { Bundle } from '../bundle/bundle.ts';
 import { countedEntries } from '../bundle/events.ts';
@@ -135,6 +138,11 @@ export function assessInputCsv(bundle: Bundle): string {
     return r;
   });
   return csvText([header, ...rows]);
+}
+
+/** The one command that reproduces the figures exactly from the bundle itself (its own setup). */
+export function bundleCommand(bundleFile = 'study.bundle.json'): string {
+  return `sure-enough assess ${shellWord(bundleFile)}`;
 }
 
 /** The two commands of the recipe, for a bundle saved as `bundleFile` (shell-quoted). */

@@ -39,7 +39,7 @@ import {
   withUnit,
 } from '../words/index.ts';
 import { COVERAGE_SOURCE } from './coverage.ts';
-import { recipeCommands, recipeGaps } from './recipe.ts';
+import { bundleCommand, recipeCommands, recipeGaps } from './recipe.ts';
 import { type ChartPoint, chartSvg, esc, REPORT_CSS, row } from './report-page.ts';
 
 export { CAUTIONS } from '../words/index.ts';
@@ -304,7 +304,8 @@ ${row('Bundle checksum (setup and log)', `<span class="hash">${esc(bundle.checks
 </table>
 <p>Anyone holding the study bundle can check these (the recipe is in the bundle schema) and reproduce the figures: save the bundle as <code>study.bundle.json</code> and run</p>
 <p><code class="recipe">${esc(recipe[0])}</code><br><code class="recipe">${esc(recipe[1])}</code></p>
-<p>${gaps.length === 0 ? 'The first command writes the counted entries in log order (non-detects as <code>&lt;RL</code>, with their stratum and primary unit); the second prints the figures below exactly.' : `The command line cannot reproduce this study exactly: ${esc(gaps.join('; '))}.`}</p>
+<p>${gaps.length === 0 ? 'The first command writes the counted entries in log order (non-detects as <code>&lt;RL</code>, with their stratum and primary unit); the second prints the figures below exactly.' : `The values file and flags cannot reproduce this study exactly: ${esc(gaps.join('; '))}.`}</p>
+<p>Exact in every case, since it reads the setup from the bundle itself: <code class="recipe">${esc(bundleCommand())}</code></p>
 <p>${exact}</p>
 </section>
 </body>

@@ -215,7 +215,8 @@ describe("the report's recipe reproduces its figures with sure-enough assess", (
       const html = await reportHtml(bundle, { coverage: null });
       expect(recipeGaps(bundle)).toEqual([]);
       expect(html).toContain('the second prints the figures below exactly');
-      const [exportCmd, assessCmd] = recipeWords(html) as [string[], string[]];
+      const [exportCmd, assessCmd, bundleCmd] = recipeWords(html) as [string[], string[], string[]];
+      expect(bundleCmd).toEqual(['sure-enough', 'assess', 'study.bundle.json']);
       const files = {
         'study.bundle.json': join(dir, `${name.length}-${method}.bundle.json`),
         'values.csv': join(dir, `${name.length}-${method}-values.csv`),
@@ -232,6 +233,11 @@ describe("the report's recipe reproduces its figures with sure-enough assess", (
       expect(html).toContain(`<p class="verdict">${cli.verdict}</p>`);
       expect(cli.reason).toBe(a.verdict.message);
       expect(cli.more).toEqual(a.more);
+      // the bundle route: assess reads the bundle's own setup and prints the same figures
+      const viaBundle = JSON.parse(await runRecipe(bundleCmd, files));
+      for (const k of ['n', 'estimate', 'lower', 'upper', 'level'] as const)
+        expect(viaBundle[k], k).toBe(fig[k]);
+      expect(viaBundle.setupFrom).toBe('bundle');
       // the voided ×100 typo is in the log but not in the values file
       expect(readFileSync(files['values.csv'], 'utf8').split('\r\n')).toHaveLength(a.n + 2);
     });
@@ -281,9 +287,15 @@ describe("the report's recipe reproduces its figures with sure-enough assess", (
     const gaps = recipeGaps(b);
     expect(gaps.join('\n')).toMatch(/stratum "a" has a number of units \(40\)/);
     expect(gaps.join('\n')).toMatch(/stratum name " b" cannot be written/);
-    expect(await reportHtml(b, { coverage: null })).toContain(
-      'The command line cannot reproduce this study exactly',
-    );
+    const html = await reportHtml(b, { coverage: null });
+    expect(html).toContain('The values file and flags cannot reproduce this study exactly');
+    // the bundle route is exact here too: the strata's number of units and names come from the bundle
+    const bundleCmd = recipeWords(html)[2]!;
+    const file = join(dir, 'gaps.bundle.json');
+    writeFileSync(file, serializeBundle(b));
+    const viaBundle = JSON.parse(await runRecipe(bundleCmd, { 'study.bundle.json': file }));
+    const a = assess(pointsOf(b.events), b.study.setup);
+    for (const k of ['n', 'estimate', 'lower', 'upper'] as const) expect(viaBundle[k], k).toBe(a[k]);
   });
 });
 
