@@ -50,7 +50,9 @@ export async function keyIn(page: Page, value: string, taps = false): Promise<vo
   const before = Number(await page.getByTestId('n').textContent());
   if (taps) {
     for (const ch of value) {
-      if (ch === ',' || ch === '.') await page.getByRole('button', { name: 'Decimal comma' }).click();
+      // the decimal key shows the study's separator (the phone's locale by default)
+      if (ch === ',' || ch === '.')
+        await page.getByRole('button', { name: /^Decimal (comma|point)$/ }).click();
       else if (ch === '-') await page.getByRole('button', { name: 'Minus sign' }).click();
       else await page.getByRole('button', { name: ch, exact: true }).click();
     }

@@ -76,9 +76,10 @@ test.describe('update', () => {
 
     // half-typed on the pad, then the new version lands on the server and the browser finds it
     for (const k of ['3', '8']) await page.getByRole('button', { name: k, exact: true }).click();
-    await page.getByRole('button', { name: 'Decimal comma' }).click();
+    // the decimal key writes the study's separator: the phone's locale (en-US here), a point
+    await page.getByRole('button', { name: 'Decimal point' }).click();
     await page.getByRole('button', { name: '2', exact: true }).click();
-    await expect(page.locator('#value-input')).toHaveValue('38,2');
+    await expect(page.locator('#value-input')).toHaveValue('38.2');
     await page.evaluate(() => {
       (window as unknown as { __samePage: boolean }).__samePage = true;
     });
@@ -96,7 +97,7 @@ test.describe('update', () => {
     );
 
     // nothing moved: same page, same version, the half-typed value intact, no prompt over the typing
-    await expect(page.locator('#value-input')).toHaveValue('38,2');
+    await expect(page.locator('#value-input')).toHaveValue('38.2');
     expect(await page.evaluate(() => (window as unknown as { __samePage?: boolean }).__samePage)).toBe(true);
     expect(await tagOf(page)).toBe('v1');
     await expect(page.getByTestId('update')).toHaveCount(0);

@@ -47,7 +47,8 @@ describe('field screen', () => {
     await waitFor(() => expect(screen.getByTestId('n').textContent).toBe('2'));
     expect((screen.getByRole('button', { name: 'Save' }) as HTMLButtonElement).disabled).toBe(false);
     await save('5,3');
-    await waitFor(() => expect(screen.getByTestId('pad-msg').textContent).toBe('Saved #3: 5,3 mg/L'));
+    // the study writes numbers one way: its separator (the test phone's locale, en-US: a point), whatever was typed
+    await waitFor(() => expect(screen.getByTestId('pad-msg').textContent).toBe('Saved #3: 5.3 mg/L'));
     // the statistics follow the acknowledged save, after the next frame
     await waitFor(() => expect(screen.getByTestId('n').textContent).toBe('3'));
     const log = await listObservations(s.id);

@@ -9,8 +9,13 @@ import { halfTyped } from '../../web/state/app-state.ts';
 
 afterEach(cleanup);
 
-function setup(kind: 'measurement' | 'count', onSave = vi.fn(async () => 7)) {
-  if (kind === 'measurement') render(<MeasurementPad disabled={false} onSave={onSave} unit="mg/L" />);
+function setup(
+  kind: 'measurement' | 'count',
+  onSave = vi.fn(async () => ({ seq: 7 })),
+  sep: '.' | ',' = '.',
+) {
+  if (kind === 'measurement')
+    render(<MeasurementPad disabled={false} onSave={onSave} unit="mg/L" sep={sep} />);
   else render(<CountPad disabled={false} onSave={onSave} />);
   const input = screen.getByLabelText(
     kind === 'measurement' ? /Value/ : /Count in this plot/,
@@ -52,8 +57,8 @@ describe('measurement pad: bad input is refused, nothing saved', () => {
     });
   }
 
-  it('accepts a decimal comma typed on the on-screen keys and saves 12.5', async () => {
-    const { onSave, input } = setup('measurement');
+  it('accepts a decimal comma typed on the on-screen keys (a comma study) and saves 12.5', async () => {
+    const { onSave, input } = setup('measurement', undefined, ',');
     for (const k of ['1', '2']) fireEvent.click(screen.getByRole('button', { name: k }));
     fireEvent.click(screen.getByRole('button', { name: 'Decimal comma' }));
     fireEvent.click(screen.getByRole('button', { name: '5' }));
@@ -156,8 +161,8 @@ describe('count pad', () => {
 
 describe('pass/fail pad', () => {
   it('two distinct buttons save 1 for the outcome and 0 for its absence', async () => {
-    const onSave = vi.fn(async () => 1);
-    render(<PassFailPad disabled={false} onSave={onSave} outcome="defect" />);
+    const onSave = vi.fn(async () => ({ seq: 1 }));
+    render(<PassFailPad disabled={false} onSave={onSave} outcome="defect" other="no defect" />);
     fireEvent.click(screen.getByRole('button', { name: 'defect', exact: true }));
     await waitFor(() => expect(onSave).toHaveBeenLastCalledWith({ value: 1 }));
     fireEvent.click(screen.getByRole('button', { name: 'no defect', exact: true }));
