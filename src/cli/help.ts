@@ -78,9 +78,16 @@ const INPUT_TEXT = `Input: FILE, or standard input when FILE is "-" or absent.
   reporting limit (a non-detect; see --non-detects).
   Field designs: a line may read value,stratum or value,stratum,cluster (value,,cluster for a primary unit
   without strata), e.g. "12,woodland,T3"; the second field must not start with a digit (4,2 is 4.2). A CSV
-  may carry "stratum" and "cluster" columns beside "value".`;
+  may carry "stratum" and "cluster" columns beside "value". CSV is read by RFC 4180: quoted fields may hold
+  the separator, "" for a quote and line breaks; a UTF-8 byte-order mark and CRLF are fine.
+  The CSV export of a study (export --format csv) is read as it is: its value column (value_<unit>,
+  count_per_plot, outcome_1_or_0; the last two also give --kind), counted rows only (voided entries and void
+  records skipped), censored = true as a non-detect, stratum and cluster columns.
+  A study bundle (.bundle.json) is read with its setup; study flags given replace those settings only, and
+  "setupFrom" says which: flags, bundle, or bundle+flags. A bundle from a newer program version is refused.`;
 
 const ASSESS_TEXT = `usage: sure-enough assess [FILE|-] --kind KIND [study flags]
+       sure-enough assess STUDY.bundle.json [study flags that replace the bundle's]
 
 Prints one JSON object:
   kind, n, estimate, lower, upper, level, sided, method   the interval the stopping rule reports (lower or
@@ -99,6 +106,8 @@ Prints one JSON object:
   methodLabel          the method and rule in plain words
   details              sd, se, halfWidth, relativeHalfWidth, precision (SE/mean), dispersion index, densities…
   warnings             plain-language warnings for this data (skew, clumping, ignored options…)
+  setupFrom            "flags", "bundle" or "bundle+flags": where the setup came from
+  input                "lines", "csv", "export" (a study's CSV export) or "bundle": how FILE was read
 
 Errors (bad value on a line, bad flag, empty input): a message naming the line or flag on stderr, exit code 2,
 nothing on stdout.`;
