@@ -1,38 +1,49 @@
 // Relative targets are written one way everywhere: `relative:20%` and `relative:0.2` both mean ±20 % of the
 // estimate; a bare number above 1 is refused with a message that shows both readings (a fraction as stored,
 // a percentage as people say it). The values are NIST/SEMATECH ZARR13 heat-flow data (test/fixtures).
-import { execFileSync, spawnSync } from 'node:child_process';
+import { mkdtempSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
+import { commands } from '../../src/cli/commands.ts';
+import { parseArgs, UsageError } from '../../src/cli/io.ts';
 import { assertSetup } from '../../src/model/setup.ts';
 import zarr13 from '../fixtures/stats-zarr13.json';
 
-const root = join(import.meta.dirname, '..', '..');
-const bin = join(root, 'src', 'cli', 'bin.mjs');
 const values = `${(zarr13.values as number[]).slice(0, 30).join('\n')}\n`;
 const passFail = `${(zarr13.values as number[])
   .slice(0, 60)
   .map((v) => (v > 9.26 ? 1 : 0))
   .join('\n')}\n`;
 
-function run(args: string[], input: string) {
-  const r = spawnSync(process.execPath, [bin, 'assess', ...args], { input, encoding: 'utf8', cwd: root });
-  return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+const dir = mkdtempSync(join(tmpdir(), 'targets-'));
+
+/** `sure-enough assess` in process: stdout, or the UsageError message the command line prints with exit 2. */
+async function run(args: string[], input: string) {
+  const file = join(dir, `in-${Math.random().toString(36).slice(2)}.txt`);
+  writeFileSync(file, input);
+  const assess = commands.assess!;
+  try {
+    return {
+      code: 0,
+      stdout: await assess.run(parseArgs([file, ...args], assess.flags, 'assess')),
+      stderr: '',
+    };
+  } catch (err) {
+    if (!(err instanceof UsageError)) throw err;
+    return { code: 2, stdout: '', stderr: err.message };
+  }
 }
 
-beforeAll(() => {
-  execFileSync('npm', ['run', 'build:cli'], { cwd: root, stdio: 'ignore' });
-}, 120_000);
-
-describe('relative targets', () => {
-  it('relative:20% and relative:0.2 give the same answer', () => {
-    const a = run(['--kind', 'measurement', '--target', 'relative:20%'], values);
-    const b = run(['--kind', 'measurement', '--target', 'relative:0.2'], values);
+describe('relative targets', async () => {
+  it('relative:20% and relative:0.2 give the same answer', async () => {
+    const a = await run(['--kind', 'measurement', '--target', 'relative:20%'], values);
+    const b = await run(['--kind', 'measurement', '--target', 'relative:0.2'], values);
     expect(a.code).toBe(0);
     expect(a.stdout).toBe(b.stdout);
   });
-  it('a bare number above 1 is refused, naming both readings, on the command line and in the core', () => {
-    const r = run(['--kind', 'measurement', '--target', 'relative:20'], values);
+  it('a bare number above 1 is refused, naming both readings, on the command line and in the core', async () => {
+    const r = await run(['--kind', 'measurement', '--target', 'relative:20'], values);
     expect(r.code).toBe(2);
     expect(r.stdout).toBe('');
     const words =
@@ -49,12 +60,12 @@ describe('relative targets', () => {
       }),
     ).toThrow(`target.value: ${words}`);
   });
-  it('a pass/fail limit may be written in percent; a measurement margin may not', () => {
-    const a = run(['--kind', 'pass-fail', '--target', 'limit:60%'], passFail);
-    const b = run(['--kind', 'pass-fail', '--target', 'limit:0.6'], passFail);
+  it('a pass/fail limit may be written in percent; a measurement margin may not', async () => {
+    const a = await run(['--kind', 'pass-fail', '--target', 'limit:60%'], passFail);
+    const b = await run(['--kind', 'pass-fail', '--target', 'limit:0.6'], passFail);
     expect(a.code).toBe(0);
     expect(a.stdout).toBe(b.stdout);
-    const c = run(['--kind', 'measurement', '--target', 'margin:5%'], values);
+    const c = await run(['--kind', 'measurement', '--target', 'margin:5%'], values);
     expect(c.code).toBe(2);
     expect(c.stderr).toContain('a percent sign is read only for relative targets and pass/fail proportions');
   });
