@@ -35,7 +35,7 @@ async function run(args: string[], input: string) {
   }
 }
 
-describe('relative targets', async () => {
+describe('relative targets', () => {
   it('relative:20% and relative:0.2 give the same answer', async () => {
     const a = await run(['--kind', 'measurement', '--target', 'relative:20%'], values);
     const b = await run(['--kind', 'measurement', '--target', 'relative:0.2'], values);
