@@ -19,6 +19,7 @@ export {
   RUNNING_SNAPSHOT_VERSION,
   type RunningSnapshot,
   restoreRunning,
+  snapshotFits,
   snapshotRunning,
 } from './assess/snapshot.ts';
 export { clusterRatioMean } from './design/cluster-ratio-mean.ts';

@@ -3,6 +3,8 @@
  * waits for another); the device id is read, never written after the first run, and persistent storage is
  * asked for at first run only. The service worker registers in production builds only.
  */
+// first: the database open starts before the rest of the app's modules are evaluated
+import './storage/early.ts';
 import { render } from 'preact';
 import { App } from './app/App.tsx';
 import { loadCore } from './core-loader.ts';

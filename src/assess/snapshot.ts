@@ -66,13 +66,19 @@ export function snapshotRunning(r: RunningAssessment): RunningSnapshot {
   };
 }
 
+/**
+ * True when `snap` is a sound snapshot for `setup` — the checks `restoreRunning` makes, without counting the
+ * entries again, so that an app can show the stored figures first and restore the assessment later.
+ */
+export function snapshotFits(setup: AnalysisSetup, snap: unknown): snap is RunningSnapshot {
+  if (!isSnapshot(snap) || snap.setup !== JSON.stringify(setup) || pointsOf(snap) === null) return false;
+  return snap.current === null || (snap.current.n === snap.values.length && snap.current.kind === setup.kind);
+}
+
 /** The running assessment a snapshot describes, or null when it is not a sound snapshot for `setup`. */
 export function restoreRunning(setup: AnalysisSetup, snap: unknown): RunningAssessment | null {
-  if (!isSnapshot(snap) || snap.setup !== JSON.stringify(setup)) return null;
-  const points = pointsOf(snap);
-  if (points === null) return null;
-  if (snap.current !== null && (snap.current.n !== points.length || snap.current.kind !== setup.kind))
-    return null;
+  if (!snapshotFits(setup, snap)) return null;
+  const points = pointsOf(snap) as Point[];
   const copy = structuredCopy({
     keys: snap.keys,
     memory: snap.memory,

@@ -11,7 +11,14 @@
  * records only (`complete` is false): the field screen needs the figures, the pace and "undo last", not the
  * whole log. Its figures are the core's restored running assessment — exactly those of a rebuild.
  */
-import type { Assessment, ObservationRecord, Point, RunningAssessment, SeriesPoint } from '../core.ts';
+import type {
+  Assessment,
+  ObservationRecord,
+  Point,
+  RunningAssessment,
+  RunningSnapshot,
+  SeriesPoint,
+} from '../core.ts';
 import { loadedCore } from '../core-loader.ts';
 import type { StoredStudy } from '../storage/schema.ts';
 import { SESSION_SNAPSHOT_VERSION, type StoredSnapshot } from '../storage/snapshots.ts';
@@ -36,7 +43,9 @@ export class StudySession {
   /** entry id → the void record that withdrew it (within `records`). */
   readonly voidOf = new Map<string, ObservationRecord>();
   private readonly byId = new Map<string, ObservationRecord>();
-  private running: RunningAssessment;
+  private restored: RunningAssessment | null = null;
+  /** A snapshot's running figures not restored yet: shown as stored until the first change needs them. */
+  private stored: RunningSnapshot | null = null;
   readonly pace: Pace;
   /** Records (entries and voids) in the whole log. */
   logCount = 0;
@@ -46,26 +55,43 @@ export class StudySession {
   constructor(
     readonly study: StoredStudy,
     records: readonly ObservationRecord[] = [],
-    /** From a snapshot: the restored figures and pace, the log's count; `records` is then the tail. */
-    restored?: { running: RunningAssessment; pace: Pace; count: number },
+    /** From a snapshot (already checked): its running figures, the pace, the log's count; `records` is the tail. */
+    from?: { running: RunningSnapshot; pace: Pace; count: number },
   ) {
     this.locked = study.lockedAt !== undefined;
-    this.pace = restored?.pace ?? new Pace();
-    for (const r of records) this.ingest(r, restored === undefined);
-    if (restored) {
-      this.running = restored.running;
-      this.logCount = restored.count;
+    this.pace = from?.pace ?? new Pace();
+    for (const r of records) this.ingest(r, from === undefined);
+    if (from) {
+      this.stored = from.running;
+      this.logCount = from.count;
       this.complete = false;
       return;
     }
     const counted = this.records.filter(
       (r) => r.voids === undefined && r.value !== undefined && !this.voidOf.has(r.id),
     );
-    this.running = new (loadedCore().RunningAssessment)(
+    this.restored = new (loadedCore().RunningAssessment)(
       study.setup,
       counted.map(pointOf),
       counted.map((r) => r.id),
     );
+  }
+
+  /** The core's running assessment; a snapshot's is restored on first need (O(n) O(1)-adds, no pipeline). */
+  private get running(): RunningAssessment {
+    if (this.restored === null) {
+      const r = loadedCore().restoreRunning(this.study.setup, this.stored);
+      // fromSnapshot checked the snapshot with the same rules (snapshotFits), so this cannot happen
+      if (r === null) throw new Error('The stored snapshot of this study could not be restored.');
+      this.restored = r;
+      this.stored = null;
+    }
+    return this.restored;
+  }
+
+  /** Restores a snapshot's running assessment now (called after the first frame, off the tap path). */
+  settle(): void {
+    void this.running;
   }
 
   /** False when opened from a snapshot: `records` then holds the last records of the log only. */
@@ -73,10 +99,9 @@ export class StudySession {
 
   /** A session from a stored snapshot already checked against the log; null when it cannot be restored. */
   static fromSnapshot(study: StoredStudy, snap: StoredSnapshot): StudySession | null {
-    const running = loadedCore().restoreRunning(study.setup, snap.running);
     const pace = Pace.restore(snap.pace);
-    if (running === null || pace === null) return null;
-    return new StudySession(study, snap.tail, { running, pace, count: snap.count });
+    if (!loadedCore().snapshotFits(study.setup, snap.running) || pace === null) return null;
+    return new StudySession(study, snap.tail, { running: snap.running, pace, count: snap.count });
   }
 
   /** The snapshot of this session, for web/storage/snapshots.ts. */
@@ -98,17 +123,23 @@ export class StudySession {
   }
 
   get assessment(): Assessment {
+    if (this.stored?.current) return this.stored.current;
     return this.running.assessment;
   }
 
   /** The running chart (the core's series). */
   get series(): SeriesPoint[] {
-    return this.running.series;
+    const st = this.stored;
+    if (st === null) return this.running.series;
+    // the same rule as RunningAssessment.series: the sampled points, ending at the latest entry
+    return st.latest === null || st.sampled.at(-1)?.n === st.latest.n
+      ? st.sampled
+      : [...st.sampled, st.latest];
   }
 
   /** Counted entries (not voided). */
   get n(): number {
-    return this.running.n;
+    return this.stored?.values.length ?? this.running.n;
   }
 
   get lastSeq(): number {
@@ -120,6 +151,17 @@ export class StudySession {
     const out: number[] = [];
     for (const p of this.running.points()) if (p.censored !== true) out.push(p.value);
     return out;
+  }
+
+  private sorted: number[] | null = null;
+  /**
+   * The counted results in ascending order (for order-free figures such as the pad's outlier question):
+   * sorted once, then each new entry is inserted in place (O(n) move, no sort on the tap path); a void
+   * sorts again on next use.
+   */
+  sortedValues(): readonly number[] {
+    this.sorted ??= this.countedValues().sort((a, b) => a - b);
+    return this.sorted;
   }
 
   isVoided(id: string): boolean {
@@ -163,14 +205,29 @@ export class StudySession {
     if (kind === 'entry') {
       this.running.add(pointOf(r), r.id);
       this.locked = true;
-    } else if (kind === 'void' && r.voids !== undefined) this.running.void(r.voids);
-    else if (kind === 'unseen' && r.voids !== undefined && !this.complete) {
+      if (this.sorted !== null && r.censored !== true) insertSorted(this.sorted, r.value as number);
+    } else if (kind === 'void' && r.voids !== undefined) {
+      this.running.void(r.voids);
+      this.sorted = null;
+    } else if (kind === 'unseen' && r.voids !== undefined && !this.complete) {
       try {
         this.running.void(r.voids);
+        this.sorted = null;
       } catch {
         // not a counted entry (already voided before the kept records): the log keeps the void, as above
       }
     }
     return before;
   }
+}
+
+function insertSorted(a: number[], x: number): void {
+  let lo = 0;
+  let hi = a.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if ((a[mid] as number) <= x) lo = mid + 1;
+    else hi = mid;
+  }
+  a.splice(lo, 0, x);
 }

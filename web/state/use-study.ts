@@ -14,7 +14,7 @@
  * unique [studyId, seq] index), the log is read again and the entry saved once more after it — never
  * written over anything. The snapshot is written after saves, when the page is idle.
  */
-import { useCallback, useEffect, useRef, useState } from 'preact/hooks';
+import { useCallback, useLayoutEffect, useRef, useState } from 'preact/hooks';
 import type { Assessment, ObservationRecord } from '../core.ts';
 import { loadCore } from '../core-loader.ts';
 import { StorageError } from '../storage/db.ts';
@@ -113,7 +113,8 @@ export function useStudy(id: string, from: OpenFrom = 'log'): StudyView {
   /** The last seq this tab committed: a second save may commit before the first one's statistics ran. */
   const committed = useRef(0);
 
-  useEffect(() => {
+  // a layout effect, so that the storage reads start with the first render instead of after its paint
+  useLayoutEffect(() => {
     let live = true;
     committed.current = 0;
     setLoaded(false);
@@ -133,6 +134,12 @@ export function useStudy(id: string, from: OpenFrom = 'log'): StudyView {
         setSession(opened.session);
         setExported(upTo);
         setLoaded(true);
+        // after the first frame, off the tap path: restore a snapshot's running assessment, and sort the
+        // results once for the pad's outlier question
+        afterFrame(() => {
+          opened.session.settle();
+          opened.session.sortedValues();
+        });
       } catch (err) {
         if (live)
           setLoadError(`Could not read this study from the phone's storage: ${(err as Error).message}`);

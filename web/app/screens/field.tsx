@@ -85,7 +85,8 @@ function Field({ view }: { view: StudyView }) {
   };
   /** The values that count so far (results, not reporting limits), for the outlier question. */
   const check = (x: number) => {
-    const earlier = session.countedValues();
+    // sorted and kept up to date by the session: the outlier question sorts nothing on the tap path
+    const earlier = session.sortedValues();
     return plausibilityQuestion(x, setup, earlier, sep);
   };
   const padOff = !view.loaded || !!study.archivedAt;
