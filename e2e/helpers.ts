@@ -46,7 +46,7 @@ export async function createMeasurementStudy(page: Page, s: MeasurementStudy): P
  * Keys a value in and saves; waits until the pad says it was committed and n moved on. `taps` uses the
  * on-screen keys one by one; otherwise the value is typed into the field (as with a keyboard).
  */
-export async function keyIn(page: Page, value: string, taps = false): Promise<void> {
+export async function keyIn(page: Page, value: string, taps = false, asked = false): Promise<void> {
   const before = Number(await page.getByTestId('n').textContent());
   if (taps) {
     for (const ch of value) {
@@ -58,8 +58,25 @@ export async function keyIn(page: Page, value: string, taps = false): Promise<vo
     }
   } else await page.locator('#value-input').fill(value);
   await page.getByRole('button', { name: 'Save', exact: true }).click();
+  if (asked) {
+    // an implausible value is questioned before it is saved, and kept as typed when the user says so
+    await expect(page.getByTestId('keep-prompt')).toContainText('Keep it?');
+    await page.getByRole('button', { name: /^Keep / }).click();
+  }
   await expect(page.getByTestId('pad-msg')).toHaveAttribute('data-committed', '1');
   await expect(page.getByTestId('n')).toHaveText(String(before + 1));
+}
+
+/**
+ * After a Save: when the pad asks "keep it?" (a value outside the expected range or far from the others,
+ * web/app/plausible.ts), keeps it; then waits for "Saved #seq". A real value is never refused.
+ */
+export async function keepIfAsked(page: Page, seq: number): Promise<void> {
+  const saved = page.getByTestId('pad-msg').filter({ hasText: `Saved #${seq}` });
+  const prompt = page.getByTestId('keep-prompt');
+  await expect(saved.or(prompt)).toBeVisible();
+  if (await prompt.isVisible()) await page.getByRole('button', { name: /^Keep / }).click();
+  await expect(saved).toBeVisible();
 }
 
 /** Parses "12.34 to 15.67" into numbers. */

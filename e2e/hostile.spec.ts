@@ -10,7 +10,7 @@
 import { readFileSync } from 'node:fs';
 import { expect, type Page, test } from '@playwright/test';
 import { openFresh, rawLog, readStore, studyIdOf } from './fixtures/browser.ts';
-import { createMeasurementStudy } from './helpers.ts';
+import { createMeasurementStudy, keepIfAsked } from './helpers.ts';
 
 async function save(page: Page, text: string): Promise<void> {
   await page.locator('#value-input').fill(text);
@@ -76,6 +76,8 @@ test('measurement pad: NaN, Infinity, 1e309, "1,2,3" and the like are refused; a
   ];
   for (const [i, [typed]] of accepted.entries()) {
     await save(page, typed);
+    // far-off values are questioned ("keep it?") and kept exactly as typed
+    await keepIfAsked(page, i + 1);
     const msg = page.getByTestId('pad-msg');
     await expect(msg).toHaveAttribute('data-committed', '1');
     await expect(msg).toContainText(`Saved #${i + 1}`);
@@ -148,6 +150,7 @@ test('count pad: negative, fractional, exponent, NaN, Infinity, empty and "1,2,3
   ).entries()) {
     await input.fill(typed);
     await saveBtn.click();
+    await keepIfAsked(page, i + 1); // 1,000,000,000 is above the expected 0–10,000 per plot: kept
     await expect(page.getByTestId('pad-msg')).toContainText(`Saved #${i + 1}`);
     expect((await rawLog(page, id)).at(-1)?.value).toBe(value);
   }
