@@ -72,6 +72,8 @@ export default defineConfig(({ mode }): UserConfig => {
     test: {
       root: projectRoot,
       include: ['test/**/*.test.{ts,tsx}'],
+      // the command line is built once for every test file that runs it (test/global-setup.ts)
+      globalSetup: ['test/global-setup.ts'],
       environment: 'node',
       testTimeout: 30_000,
     },

@@ -38,6 +38,15 @@ export type ParseResult =
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const COMMA_DECIMAL = /^[+-]?\d*,\d+([eE][+-]?\d+)?$/;
+/** `1,000` or `12,500`: one thousand or one; twelve thousand five hundred or twelve and a half. */
+const COMMA_THOUSANDS = /^[+-]?\d{1,3},\d{3}$/;
+/** `3,250,000`: only thousands separators can make sense of it, and they are not allowed. */
+const GROUPED = /^[+-]?\d{1,3}(,\d{3}){2,}$/;
+
+/** How a study writes its decimals, when it says so (StudySetup.decimalSeparator). */
+export interface ValueOptions {
+  decimalSeparator?: '.' | ',';
+}
 const MAX_ERRORS = 20;
 
 function show(text: string): string {
@@ -46,9 +55,27 @@ function show(text: string): string {
 }
 
 /** A single number from one cell or line, or an error message (without the line prefix). */
-function parseNumber(raw: string, allowCommaDecimal: boolean): number | string {
+function parseNumber(
+  raw: string,
+  allowCommaDecimal: boolean,
+  kind: DataKind,
+  separator: ValueOptions['decimalSeparator'],
+): number | string {
   const s = raw.trim();
+  // counts are whole numbers written with digits only: "1,000" and "1.000" are refused, never guessed
+  if (kind === 'count' && /^[+-]?\d{1,3}([.,]\d{3})+$/.test(s))
+    return `${show(s)} has a separator; write a count with digits only (e.g. ${s.replace(/[.,]/g, '')})`;
+  if (separator === ',' && s.includes('.') && !s.includes(','))
+    return `${show(s)} uses a decimal point, but this study writes decimals with a comma (${s.replace('.', ',')})`;
+  if (separator === '.' && s.includes(','))
+    return `${show(s)} has a comma, but this study writes decimals with a point and no thousands separators`;
   if (NUMBER.test(s)) return Number(s);
+  if (GROUPED.test(s)) return `${show(s)} has thousands separators; write ${s.replace(/,/g, '')}`;
+  if (allowCommaDecimal && separator === undefined && COMMA_THOUSANDS.test(s)) {
+    const thousands = s.replace(/,/g, '');
+    const decimal = s.replace(',', '.');
+    return `${show(s)} could be ${thousands} (comma between thousands) or ${decimal} (decimal comma); write ${thousands} or ${decimal}, or set the study's decimal separator`;
+  }
   if (allowCommaDecimal && COMMA_DECIMAL.test(s)) return Number(s.replace(',', '.'));
   const parts = s.split(/[\s,;]+/).filter((p) => p !== '');
   if (parts.length > 1 && parts.every((p) => NUMBER.test(p) || COMMA_DECIMAL.test(p)))
@@ -112,7 +139,7 @@ function cellOf(rec: CsvRecord, t: ValueTable): Cell | string | null {
   return c;
 }
 
-export function parseValues(text: string, kind: DataKind): ParseResult {
+export function parseValues(text: string, kind: DataKind, options: ValueOptions = {}): ParseResult {
   const found = findTable(text);
   if (!found.ok) return { ok: false, errors: [found.error] };
   const { table, records } = found;
@@ -143,7 +170,13 @@ export function parseValues(text: string, kind: DataKind): ParseResult {
       censored = true;
       cell = cell.slice(1).trim();
     }
-    const v = parseNumber(cell, table.format === 'lines' || table.separator !== ',');
+    const v = parseNumber(
+      cell,
+      table.format === 'lines' || table.separator !== ',',
+      kind,
+      // a study's separator governs what people type; a machine-written table (the export) uses the point
+      table.format === 'lines' ? options.decimalSeparator : undefined,
+    );
     if (typeof v === 'string') {
       errors.push(`line ${lineNo}: ${censored ? `"<" must be followed by a reporting limit; ` : ''}${v}`);
       continue;

@@ -1,10 +1,10 @@
 // `sure-enough assess` end to end: the built command (npm run build:cli), its JSON fields as in
 // src/cli/README.md, and bad input → message on stderr naming the line or flag, exit code 2, nothing on stdout.
-import { execFileSync, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 
 const root = join(import.meta.dirname, '..', '..');
 const bin = join(root, 'src', 'cli', 'bin.mjs');
@@ -13,10 +13,6 @@ function run(args: string[], input?: string) {
   const r = spawnSync(process.execPath, [bin, ...args], { input: input ?? '', encoding: 'utf8', cwd: root });
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
-
-beforeAll(() => {
-  execFileSync('npm', ['run', 'build:cli'], { cwd: root, stdio: 'ignore' });
-}, 120_000);
 
 describe('assess output', () => {
   it('prints one JSON object with the fields of src/cli/README.md', () => {

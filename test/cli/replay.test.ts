@@ -1,8 +1,8 @@
 // `sure-enough replay` end to end (src/cli/README.md, "Output"): JSON lines in, one JSON line out per sequence, and bad
 // input → a message on stderr naming the line, exit code 2, nothing on stdout.
-import { execFileSync, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 
 const root = join(import.meta.dirname, '..', '..');
 const bin = join(root, 'src', 'cli', 'bin.mjs');
@@ -11,10 +11,6 @@ function run(args: string[], input: string) {
   const r = spawnSync(process.execPath, [bin, 'replay', ...args], { input, encoding: 'utf8', cwd: root });
   return { code: r.status, stdout: r.stdout, stderr: r.stderr };
 }
-
-beforeAll(() => {
-  execFileSync('npm', ['run', 'build:cli'], { cwd: root, stdio: 'ignore' });
-}, 120_000);
 
 const steady = Array.from({ length: 60 }, (_, i) => 10 + ((i * 7) % 11) / 10 - 0.5);
 

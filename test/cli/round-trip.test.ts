@@ -7,11 +7,11 @@
  * The figures' agreement with the phone is checked in test/surfaces/round-trip.test.ts; here the three
  * inputs must agree with each other and with the values typed in.
  */
-import { execFileSync, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 
 const root = join(import.meta.dirname, '..', '..');
 const bin = join(root, 'src', 'cli', 'bin.mjs');
@@ -33,10 +33,6 @@ function write(name: string, text: string): string {
   writeFileSync(file, text);
   return file;
 }
-
-beforeAll(() => {
-  execFileSync('npm', ['run', 'build:cli'], { cwd: root, stdio: 'ignore' });
-}, 120_000);
 
 // Bortkiewicz (1898) horse-kick deaths per corps-year, a run of them (order not published); ZARR13
 // (NIST/SEMATECH e-Handbook) heat flow meter values, the first twelve.

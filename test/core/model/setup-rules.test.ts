@@ -10,9 +10,9 @@
 // Each rule names its source; the SPRT α edge (0.5 refused, 0.4999 accepted) is Wald 1947, Sequential
 // Analysis, §3.2 (boundaries A = (1 − β)/α, B = β/(1 − α) need α + β < 1; the rule α, β < 0.5 is the
 // practitioner's) [read/secondary].
-import { execFileSync, spawnSync } from 'node:child_process';
+import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
-import { beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { makeBundle, serializeBundle } from '../../../src/bundle/bundle.ts';
 import { parseBundle } from '../../../src/bundle/validate.ts';
 import type { StudySetup } from '../../../src/model/records.ts';
@@ -22,10 +22,6 @@ import { entries, study } from '../bundle/make.ts';
 
 const root = join(import.meta.dirname, '..', '..', '..');
 const bin = join(root, 'src', 'cli', 'bin.mjs');
-
-beforeAll(() => {
-  execFileSync('npm', ['run', 'build:cli'], { cwd: root, stdio: 'ignore' });
-}, 120_000);
 
 interface Base {
   form: Form;

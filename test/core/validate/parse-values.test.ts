@@ -49,3 +49,52 @@ describe('parseValues', () => {
     }
   });
 });
+
+// A number whose meaning depends on the locale is refused, never guessed: in English "1,000" is one thousand,
+// in most of Europe it is one (ISO 80000-1:2009 §7.3.1 allows either the comma or the point as the decimal
+// sign and forbids either between groups of digits — it recommends a thin space).
+describe('numbers whose reading depends on the locale', () => {
+  it.each([
+    ['1,000', '1000', '1.000'],
+    ['12,500', '12500', '12.500'],
+    ['-3,250', '-3250', '-3.250'],
+  ])('%s is refused with both readings', (typed, thousands, decimal) => {
+    const r = parseValues(`4.1\n${typed}\n`, 'measurement');
+    expect(r.ok).toBe(false);
+    if (!r.ok)
+      expect(r.errors[0]).toBe(
+        `line 2: "${typed}" could be ${thousands} (comma between thousands) or ${decimal} (decimal comma); write ${thousands} or ${decimal}, or set the study's decimal separator`,
+      );
+  });
+  it('grouped thousands are refused with the plain number to write', () => {
+    const r = parseValues('3,250,000\n', 'measurement');
+    expect(r).toEqual({ ok: false, errors: ['line 1: "3,250,000" has thousands separators; write 3250000'] });
+  });
+  it('an unambiguous decimal comma is still read (4,25 and 0,5)', () => {
+    expect(parseValues('4,25\n0,5\n', 'measurement')).toMatchObject({
+      ok: true,
+      points: [{ value: 4.25 }, { value: 0.5 }],
+    });
+  });
+  it("the study's separator settles it: a comma study reads 12,500 as 12.5; a point study refuses the comma", () => {
+    expect(parseValues('12,500\n', 'measurement', { decimalSeparator: ',' })).toMatchObject({
+      ok: true,
+      points: [{ value: 12.5 }],
+    });
+    const point = parseValues('12,500\n', 'measurement', { decimalSeparator: '.' });
+    expect(point.ok).toBe(false);
+    const comma = parseValues('12.5\n', 'measurement', { decimalSeparator: ',' });
+    expect(comma.ok).toBe(false);
+    if (!comma.ok) expect(comma.errors[0]).toContain('this study writes decimals with a comma (12,5)');
+  });
+  it('counts take digits only: 1,000 and 1.000 are refused, not read as 1', () => {
+    for (const typed of ['1,000', '1.000']) {
+      const r = parseValues(`3\n${typed}\n`, 'count');
+      expect(r.ok).toBe(false);
+      if (!r.ok)
+        expect(r.errors[0]).toBe(
+          `line 2: "${typed}" has a separator; write a count with digits only (e.g. 1000)`,
+        );
+    }
+  });
+});
