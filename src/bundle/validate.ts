@@ -9,6 +9,7 @@
  */
 import type { ObservationRecord, StudyRecord } from '../model/records.ts';
 import { setupPath, setupProblems } from '../model/setup.ts';
+import { valueProblem } from '../model/value.ts';
 import { BUNDLE_FORMAT, BUNDLE_VERSION, type Bundle, bundleChecksum, KNOWN_KEYS } from './bundle.ts';
 import { upgradeBundle } from './version.ts';
 
@@ -171,10 +172,11 @@ function checkEvent(p: Problems, e: unknown, i: number, study: Obj): void {
   const v = e.value;
   if (v === undefined) p.add(`${w}.value`, 'missing (an entry needs a value; a void needs "voids")');
   else if (!isNum(v)) p.add(`${w}.value`, `must be a number, got ${show(v)}`);
-  else if (kind === 'count' && !(Number.isInteger(v) && v >= 0))
-    p.add(`${w}.value`, `a count must be a whole number ≥ 0, got ${v}`);
-  else if (kind === 'pass-fail' && v !== 0 && v !== 1)
-    p.add(`${w}.value`, `pass/fail must be 1 or 0, got ${v}`);
+  else if (kind === 'measurement' || kind === 'count' || kind === 'pass-fail') {
+    // the one value rule (src/model/value.ts); the censored member is checked on its own below
+    const problem = valueProblem(v, kind, false);
+    if (problem !== null) p.add(`${w}.value`, problem.startsWith('is ') ? `${v} ${problem}` : problem);
+  }
   if (e.censored !== undefined) {
     if (typeof e.censored !== 'boolean')
       p.add(`${w}.censored`, `must be true or false, got ${show(e.censored)}`);

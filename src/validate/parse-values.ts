@@ -20,6 +20,7 @@
  * @example parseValues('# depth\n4,2\n5.1\n', 'measurement') // { ok: true, points: [{ value: 4.2 }, { value: 5.1 }], … }
  */
 import type { DataKind, Point } from '../model/types.ts';
+import { valueProblem } from '../model/value.ts';
 import { type CsvRecord, readCsv } from './csv-read.ts';
 import { findTable, type ValueTable } from './value-columns.ts';
 
@@ -81,23 +82,6 @@ function parseNumber(
   if (parts.length > 1 && parts.every((p) => NUMBER.test(p) || COMMA_DECIMAL.test(p)))
     return `${show(s)} holds more than one number; give one value per line`;
   return `${show(s)} is not a number`;
-}
-
-function checkKind(value: number, censored: boolean, kind: DataKind): string | null {
-  if (!Number.isFinite(value)) return 'is not a finite number';
-  if (censored) {
-    if (kind !== 'measurement')
-      return 'a value below a reporting limit (<RL) is only allowed for measurements';
-    if (!(value > 0)) return 'a reporting limit must be above zero';
-    return null;
-  }
-  if (kind === 'pass-fail' && value !== 0 && value !== 1)
-    return 'is not 0 or 1 (pass-fail: 1 = the counted outcome, 0 = the other)';
-  if (kind === 'count') {
-    if (value < 0) return 'is negative; counts are whole numbers ≥ 0';
-    if (!Number.isInteger(value)) return 'is not a whole number; counts are whole numbers ≥ 0';
-  }
-  return null;
 }
 
 interface Cell {
@@ -181,7 +165,7 @@ export function parseValues(text: string, kind: DataKind, options: ValueOptions 
       errors.push(`line ${lineNo}: ${censored ? `"<" must be followed by a reporting limit; ` : ''}${v}`);
       continue;
     }
-    const problem = checkKind(v, censored, kind);
+    const problem = valueProblem(v, kind, censored);
     if (problem !== null) {
       errors.push(`line ${lineNo}: ${problem.startsWith('is ') ? `${show(cell)} ${problem}` : problem}`);
       continue;

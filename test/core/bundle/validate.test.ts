@@ -152,12 +152,15 @@ describe('parseBundle', () => {
         b.events[0].value = 2.5;
         b.events[1].value = -1;
         b.events[2].value = '4';
+        b.events[3].value = 1e200;
       }),
     );
     expect(p).toEqual([
-      'events[0].value: a count must be a whole number ≥ 0, got 2.5',
-      'events[1].value: a count must be a whole number ≥ 0, got -1',
+      'events[0].value: 2.5 is not a whole number; counts are whole numbers ≥ 0',
+      'events[1].value: -1 is negative; counts are whole numbers ≥ 0',
       'events[2].value: must be a number, got "4"',
+      // (1e200)² overflows a double (IEEE 754 binary64, largest finite ≈ 1.8e308)
+      'events[3].value: 1e+200 is beyond ±1e150, more than the statistics can square; write it in a larger unit',
     ]);
   });
   it('position out of range and swapped', async () => {

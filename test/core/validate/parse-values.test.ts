@@ -98,3 +98,16 @@ describe('numbers whose reading depends on the locale', () => {
     }
   });
 });
+
+describe('magnitude', () => {
+  it('a value whose square overflows a double (IEEE 754 binary64, largest ≈ 1.8e308) is refused, not turned into an infinite spread', () => {
+    const r = parseValues('4\n1e200\n', 'measurement');
+    expect(r).toEqual({
+      ok: false,
+      errors: [
+        'line 2: "1e200" is beyond ±1e150, more than the statistics can square; write it in a larger unit',
+      ],
+    });
+    expect(parseValues('1e150\n2e149\n', 'measurement').ok).toBe(true);
+  });
+});
