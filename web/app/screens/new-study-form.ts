@@ -13,7 +13,6 @@ import type { DataKind, RuleName, StudySetup, Target } from '../../core.ts';
 import { formatStrata, parseStrata, SETUP_DEFAULTS, setupProblems } from '../../core-light.ts';
 import { parseMeasurement } from '../../input/parse.ts';
 import type { StoredStudy } from '../../storage/schema.ts';
-import { localeSeparator } from '../number-style.ts';
 
 export type TargetKind = Target['kind'];
 export interface Form {
@@ -298,8 +297,11 @@ export function buildSetup(f: Form): { setup: StudySetup; name: string } | { err
     const range = given({ low: num('rangeLow', true), high: num('rangeHigh', true) });
     if (Object.keys(range).length) setup.expectedRange = range;
   }
-  setup.decimalSeparator = f.sep || localeSeparator();
-  setup.positionWarnM = num('positionWarnM', true);
+  // stored only when chosen: a study without one follows the phone's locale (web/app/number-style.ts), and
+  // a position warning without a setting is at 30 m
+  if (f.sep) setup.decimalSeparator = f.sep;
+  const warnM = num('positionWarnM', true);
+  if (warnM !== undefined && warnM !== 30) setup.positionWarnM = warnM;
   const tv = num('targetValue');
   if (tv !== undefined) {
     if (f.targetKind === 'limit') {
