@@ -258,8 +258,8 @@ export function setupProblems(value: unknown): SetupProblem[] {
 
 /** The expected range (values to question, never refuse): low below high; a pass/fail item is 0 or 1. */
 function checkRange(p: Problems, r: unknown, kind: DataKind | undefined): void {
-  if (r === undefined) return;
-  if (!isObj(r)) return p.add('expectedRange', `must be an object, got ${show(r)}`);
+  if (r !== undefined && !isObj(r)) p.add('expectedRange', `must be an object, got ${show(r)}`);
+  if (!isObj(r)) return;
   p.unknownKeys('expectedRange', r, ['low', 'high']);
   if (kind === 'pass-fail') p.add('expectedRange', 'applies to measurements and counts only');
   const lo = p.number('expectedRange.low', r.low);
