@@ -1,9 +1,9 @@
 /**
- * The statistics core (src/, with jstat: about 38 KB gzipped) is its own chunk, fetched right after the
- * first paint instead of blocking it, so the app shell (screens, storage, service-worker registration)
- * stays within the 60 KB budget. Every screen that shows figures loads a study from IndexedDB first,
- * which is asynchronous anyway, and awaits `loadCore()` on the same path; the service worker precaches
- * the chunk, so it is there offline.
+ * The statistics core (src/, with jstat) is its own chunk, so the app shell (screens, storage,
+ * service-worker registration) stays within the 60 KB budget. web/main.tsx starts fetching it at once, in
+ * parallel with the database open and the first render (it never blocks the first paint). Every screen that
+ * shows figures loads a study from IndexedDB, which is asynchronous anyway, and awaits `loadCore()` on the
+ * same path; the service worker precaches the chunk, so it is there offline.
  *
  * Only type imports of ./core.ts are allowed elsewhere in web/: a value import would pull the whole core
  * back into the shell chunk. Light helpers with no statistics live in ./core-light.ts.
