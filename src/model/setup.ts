@@ -26,58 +26,19 @@
  * - non-detects and the reporting limit for measurements only; the plot area for counts only.
  */
 import type { StudySetup } from './records.ts';
-import type {
-  AnalysisSetup,
-  CountMethod,
-  DataKind,
-  MeasurementMethod,
-  MethodName,
-  PassFailMethod,
-  RuleName,
-  Sided,
-  Target,
-} from './types.ts';
+import {
+  DATA_KINDS,
+  DESIGNS,
+  METHODS_BY_KIND,
+  NON_DETECTS,
+  RULES,
+  SIDEDNESS,
+  TARGET_KINDS,
+} from './setup-lists.ts';
 
-export const DATA_KINDS: readonly DataKind[] = ['measurement', 'count', 'pass-fail'];
+import type { AnalysisSetup, DataKind, MethodName, Target } from './types.ts';
 
-/** Interval methods of each data kind by their published names; the first is not always the default. */
-export const METHODS_BY_KIND: Readonly<Record<DataKind, readonly MethodName[]>> = {
-  measurement: ['t', 'cox', 'land', 'chebyshev'] satisfies MeasurementMethod[],
-  count: ['t', 'poisson-exact', 'quasi-poisson'] satisfies CountMethod[],
-  'pass-fail': [
-    'wilson',
-    'wilson-cc',
-    'jeffreys',
-    'clopper-pearson',
-    'agresti-coull',
-  ] satisfies PassFailMethod[],
-};
-
-export const RULES: readonly RuleName[] = ['standard', 'strict', 'sprt', 'naive'];
-export const SIDEDNESS: readonly Sided[] = ['two', 'upper', 'lower'];
-export const TARGET_KINDS: readonly Target['kind'][] = ['margin', 'relative', 'precision', 'limit'];
-export const DESIGNS: readonly NonNullable<AnalysisSetup['design']>[] = ['composite'];
-export const NON_DETECTS: readonly NonNullable<AnalysisSetup['nonDetects']>[] = [
-  'kaplan-meier',
-  'half-limit',
-];
-
-/** What a setup gets when the user says nothing (form defaults and command-line defaults). */
-export const SETUP_DEFAULTS = {
-  level: 0.95,
-  sided: 'two',
-  rule: 'standard',
-  min: 10,
-  sprtAlpha: 0.05,
-  sprtBeta: 0.1,
-} as const satisfies {
-  level: number;
-  sided: Sided;
-  rule: RuleName;
-  min: number;
-  sprtAlpha: number;
-  sprtBeta: number;
-};
+export * from './setup-lists.ts';
 
 /**
  * Every member of a stored setup, checked by the compiler: a member added to StudySetup without being
