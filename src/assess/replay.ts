@@ -17,7 +17,11 @@
  *
  * @example replaySequence([9.8, 10.1, …], setup) // { stoppedAt: 23, estimate: 10.02, lower: 9.6, upper: 10.4, verdict: 'enough' }
  */
+
+import type { Interval } from '../model/interval.ts';
 import type { AnalysisSetup, Sided, Target, VerdictStatus } from '../model/types.ts';
+import { garwoodBracket } from '../stats/garwood-poisson-bracket.ts';
+import { landInnerBounds } from '../stats/land-inner-bounds.ts';
 import { decide, type RuleContext } from '../stop/index.ts';
 import { RunningAssessment } from './running.ts';
 import { kindEstimator } from './subject.ts';
@@ -66,6 +70,27 @@ export function replaySequence(
     verdictOnly: true,
     stopOnly: true,
   };
+  // Intervals inside the exact one, found without solving for its limits, settle most `keep going` entries
+  // (rule-context.ts, innerIntervalAt): exact Poisson counts (each entry brings a new total, so new degrees
+  // of freedom: garwood-poisson-bracket.ts) and Land's method (a new n and s_y: land-inner-bounds.ts).
+  // The figures are computed exactly as the estimators compute them (estimators/count.ts, measurement.ts).
+  let plots = 0;
+  let total = 0;
+  let poissonSe = 0;
+  const poissonInner = (level: number, s: Sided, tier: number): Interval | null => {
+    const b = tier === 0 ? garwoodBracket(total, plots, level, s) : null;
+    return b === null ? null : { estimate: total / plots, lower: b.lowerIn, upper: b.upperIn, se: poissonSe };
+  };
+  const landInner = (level: number, s: Sided, tier: number): Interval | null => {
+    const sd = summary.logSd;
+    const b = landInnerBounds(plots, summary.logMean, sd, level, s, tier);
+    if (b === null) return null;
+    const s2 = sd * sd;
+    const estimate = Math.exp(summary.logMean + s2 / 2);
+    const se = estimate * Math.sqrt(s2 / plots + (s2 * s2) / (2 * (plots - 1)));
+    return { estimate, lower: b.lower, upper: b.upper, se };
+  };
+  const noInner = (): null => null;
   for (let i = 0; i < values.length; i++) {
     running.addValue(values[i] as number);
     const n = state.n;
@@ -101,6 +126,13 @@ export function replaySequence(
     }
     ctx.n = n;
     ctx.intervalAt = estimator.intervalAt;
+    plots = n;
+    if (estimator.method === 'poisson-exact') {
+      total = Math.round(summary.total);
+      poissonSe = Math.sqrt(summary.mean / n);
+      ctx.innerIntervalAt = poissonInner;
+    } else if (estimator.method === 'land') ctx.innerIntervalAt = landInner;
+    else ctx.innerIntervalAt = noInner;
     stats.total = summary.total;
     stats.mean = summary.mean;
     stats.sd = summary.sd;

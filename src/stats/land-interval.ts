@@ -9,7 +9,7 @@
  * statistic U = Σy'/(√n·R) has density ∝ (1 − u²)^{(n−3)/2}·exp(−√n·R·u/2) under θ = θ₀. With u = sin φ the
  * cdf is a ratio of two 1-D integrals of cos^{n−2}φ·exp(−a·sin φ), a = √n·R/2, done here by Gauss–Legendre
  * quadrature on a window around the mode (exponent shifted by its maximum, so stable for large s_y);
- * H is the root (bisection) of P(U ≤ u_obs; θ₀) = 1 − p. No hand-typed table.
+ * H is the root of P(U ≤ u_obs; θ₀) = 1 − p (Brent's method from the large-sample value). No hand-typed table.
  * Preconditions: n ≥ 2 positive values (logMean, logSd of ln x), 0 < level < 1.
  * Returns: estimate exp(ȳ + s²/2), lower, upper (0 / +∞ on the open side of a one-sided bound), and H.
  * Validity: exact for lognormal data; grows very large for large s_y and small n (USEPA 2002 warns the
@@ -17,6 +17,7 @@
  * @example landH(10, 1, 0.95) // 3.1026
  */
 import type { Sided } from '../model/types.ts';
+import { normalQuantile } from './distributions.ts';
 
 // 20-point Gauss–Legendre nodes and weights on [−1, 1] (Abramowitz & Stegun 1964, Table 25.4).
 const GL_X = [
@@ -27,15 +28,19 @@ const GL_W = [
   0.1527533871307258, 0.1491729864726037, 0.1420961093183821, 0.1316886384491766, 0.1181945319615184,
   0.1019301198172404, 0.0832767415767048, 0.0626720483341091, 0.0406014298003869, 0.0176140071391521,
 ];
+/** At most this many 20-point panels per integral; a panel spans at most two widths of the mode's peak. */
 const PANELS = 24;
 const HALF_PI = Math.PI / 2;
+/** The window ends where the integrand is below e^−60 of its peak (1e-26: nothing left to add). */
+const NEGLIGIBLE = -60;
 
-/** ∫ exp(g(φ) − gMax) dφ over [lo, hi] by composite 20-point Gauss–Legendre. */
-function integrate(g: (phi: number) => number, gMax: number, lo: number, hi: number): number {
+/** ∫ exp(g(φ) − gMax) dφ over [lo, hi] by composite 20-point Gauss–Legendre, panels of at most `panel`. */
+function integrate(g: (phi: number) => number, gMax: number, lo: number, hi: number, panel: number): number {
   if (!(hi > lo)) return 0;
-  const h = (hi - lo) / PANELS;
+  const panels = Math.min(PANELS, Math.max(2, Math.ceil((hi - lo) / panel)));
+  const h = (hi - lo) / panels;
   let sum = 0;
-  for (let k = 0; k < PANELS; k++) {
+  for (let k = 0; k < panels; k++) {
     const mid = lo + (k + 0.5) * h;
     const half = h / 2;
     for (let i = 0; i < 10; i++) {
@@ -61,16 +66,28 @@ function conditionalCdf(n: number, a: number, uObs: number): number {
   const c = Math.cos(phiMode);
   const curvature = (m > 0 ? m / (c * c) : 0) - a * Math.sin(phiMode);
   const width = 1 / Math.sqrt(Math.max(curvature, 1e-12));
-  const lo = Math.max(-HALF_PI, phiMode - 40 * width);
-  const hi = Math.min(HALF_PI, phiMode + 40 * width);
   const gMax = g(phiMode);
-  const total = integrate(g, gMax, lo, hi);
+  // the window: at most 40 widths either side of the mode, cut where the integrand has become negligible
+  let lo = Math.max(-HALF_PI, phiMode - 40 * width);
+  let hi = Math.min(HALF_PI, phiMode + 40 * width);
+  for (let k = 4; k < 40; k += 2)
+    if (phiMode - k * width > lo && g(phiMode - k * width) - gMax < NEGLIGIBLE) {
+      lo = phiMode - k * width;
+      break;
+    }
+  for (let k = 4; k < 40; k += 2)
+    if (phiMode + k * width < hi && g(phiMode + k * width) - gMax < NEGLIGIBLE) {
+      hi = phiMode + k * width;
+      break;
+    }
+  const panel = 2 * width;
   const phiObs = Math.asin(uObs);
   if (phiObs <= lo) return 0;
   if (phiObs >= hi) return 1;
+  const total = integrate(g, gMax, lo, hi, panel);
   // integrate the smaller side for accuracy
-  if (phiObs < phiMode) return integrate(g, gMax, lo, phiObs) / total;
-  return 1 - integrate(g, gMax, phiObs, hi) / total;
+  if (phiObs < phiMode) return integrate(g, gMax, lo, phiObs, panel) / total;
+  return 1 - integrate(g, gMax, phiObs, hi, panel) / total;
 }
 
 /** P(U ≤ u_obs) for the standardised sample (ȳ = 0, s_y = s) at the candidate factor H. */
@@ -82,6 +99,78 @@ function tailAt(n: number, s: number, h: number): number {
 }
 
 const cache = new Map<string, number>();
+/** Land factors solved so far (cache misses), for tests that count the per-entry path's cost. */
+let solves = 0;
+export function landHSolves(): number {
+  return solves;
+}
+
+/**
+ * Root of a decreasing f on [lo, hi] (f(lo) > 0 > f(hi)) by Brent's method (Brent RP 1973, Algorithms for
+ * Minimization without Derivatives, ch. 4, "zero"): inverse quadratic interpolation with bisection as the
+ * fallback, so never slower than bisection and usually 6–8 evaluations instead of 35.
+ */
+function brentRoot(f: (h: number) => number, lo: number, hi: number, flo: number, fhi: number): number {
+  let a = lo;
+  let b = hi;
+  let fa = flo;
+  let fb = fhi;
+  let c = a;
+  let fc = fa;
+  let d = b - a;
+  let e = d;
+  for (let i = 0; i < 200; i++) {
+    if ((fb > 0 && fc > 0) || (fb < 0 && fc < 0)) {
+      c = a;
+      fc = fa;
+      d = b - a;
+      e = d;
+    }
+    if (Math.abs(fc) < Math.abs(fb)) {
+      a = b;
+      b = c;
+      c = a;
+      fa = fb;
+      fb = fc;
+      fc = fa;
+    }
+    // the bisection's stopping width: 1e-10 of |H| (at least 1e-10)
+    const tol = 0.5e-10 * Math.max(1, Math.abs(b));
+    const m = (c - b) / 2;
+    if (Math.abs(m) <= tol || fb === 0) return b;
+    if (Math.abs(e) >= tol && Math.abs(fa) > Math.abs(fb)) {
+      const s = fb / fa;
+      let p: number;
+      let q: number;
+      if (a === c) {
+        p = 2 * m * s;
+        q = 1 - s;
+      } else {
+        const qq = fa / fc;
+        const r = fb / fc;
+        p = s * (2 * m * qq * (qq - r) - (b - a) * (r - 1));
+        q = (qq - 1) * (r - 1) * (s - 1);
+      }
+      if (p > 0) q = -q;
+      else p = -p;
+      if (2 * p < Math.min(3 * m * q - Math.abs(tol * q), Math.abs(e * q))) {
+        e = d;
+        d = p / q;
+      } else {
+        d = m;
+        e = d;
+      }
+    } else {
+      d = m;
+      e = d;
+    }
+    a = b;
+    fa = fb;
+    b += Math.abs(d) > tol ? d : m > 0 ? tol : -tol;
+    fb = f(b);
+  }
+  return b;
+}
 
 /** Land's factor H_p(n, s_y): the p-level limit is exp(ȳ + s_y²/2 + s_y·H_p/√(n−1)). */
 export function landH(n: number, sy: number, p: number): number {
@@ -91,25 +180,38 @@ export function landH(n: number, sy: number, p: number): number {
   const key = `${n}|${sy}|${p}`;
   const hit = cache.get(key);
   if (hit !== undefined) return hit;
+  solves++;
   const target = 1 - p; // tailAt decreases in H
-  let lo = -1;
-  let hi = 1;
-  while (tailAt(n, sy, lo) < target) {
-    hi = lo;
-    lo *= 2;
-    if (lo < -1e9) throw new RangeError('landH did not bracket the root');
+  const f = (h: number): number => tailAt(n, sy, h) - target;
+  // Start from the large-sample value (the Cox standard error of ȳ + s²/2: H ≈ z_p·√((n−1)/n + s²/2)) and
+  // widen a step at a time until the root is bracketed.
+  const z = normalQuantile(p);
+  const guess = z * Math.sqrt((n - 1) / n + (sy * sy) / 2);
+  let step = 0.05 * Math.max(1, Math.abs(guess));
+  let lo = guess;
+  let flo = f(lo);
+  let hi = guess;
+  let fhi = flo;
+  if (flo > 0) {
+    do {
+      lo = hi;
+      flo = fhi;
+      hi = lo + step;
+      fhi = f(hi);
+      step *= 2;
+      if (hi > 1e9) throw new RangeError('landH did not bracket the root');
+    } while (fhi > 0);
+  } else {
+    do {
+      hi = lo;
+      fhi = flo;
+      lo = hi - step;
+      flo = f(lo);
+      step *= 2;
+      if (lo < -1e9) throw new RangeError('landH did not bracket the root');
+    } while (flo < 0);
   }
-  while (tailAt(n, sy, hi) > target) {
-    lo = hi;
-    hi *= 2;
-    if (hi > 1e9) throw new RangeError('landH did not bracket the root');
-  }
-  for (let i = 0; i < 100 && hi - lo > 1e-10 * Math.max(1, Math.abs(hi)); i++) {
-    const mid = (lo + hi) / 2;
-    if (tailAt(n, sy, mid) > target) lo = mid;
-    else hi = mid;
-  }
-  const h = (lo + hi) / 2;
+  const h = flo === 0 ? lo : fhi === 0 ? hi : brentRoot(f, lo, hi, flo, fhi);
   if (cache.size > 10_000) cache.clear();
   cache.set(key, h);
   return h;

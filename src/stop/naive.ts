@@ -14,12 +14,24 @@
  * @example naiveRule(ctx, { ...setup, rule: 'naive' }).reportedLevel // = setup.level
  */
 import type { AnalysisSetup } from '../model/types.ts';
+import { innerKeepGoing } from './inner-keep-going.ts';
 import type { RuleContext, RuleDecision } from './rule-context.ts';
 import { decideOn } from './status-of.ts';
 
 export function naiveRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
+  const label = 'naive (no correction for looking after every entry)';
+  // stop-only: an interval inside the rule's own that misses the target settles `keep going` (rule-context.ts)
+  const inner = ctx.stopOnly ? innerKeepGoing(ctx, setup.level, setup.sided, (iv) => iv) : null;
+  if (inner !== null && inner !== false)
+    return {
+      status: 'keep going',
+      interval: inner,
+      reportedLevel: setup.level,
+      message: '',
+      ruleLabel: label,
+    };
   const interval = ctx.intervalAt(setup.level, setup.sided);
-  return decideOn(ctx, interval, setup.level, 'naive (no correction for looking after every entry)', {
+  return decideOn(ctx, interval, setup.level, label, {
     keepGoing: 'The interval does not meet the target yet.',
     met: 'The interval meets the target (no correction for looking after every entry).',
   });

@@ -41,6 +41,14 @@ export interface RuleContext {
    * quantile inversion at a data-dependent level). Implies verdictOnly.
    */
   stopOnly?: boolean;
+  /**
+   * Stop-only and optional: an interval that intervalAt(level, sided) is sure to contain, found without
+   * solving for its limits (exact Poisson counts: garwood-poisson-bracket.ts; Land: land-inner-bounds.ts),
+   * tighter with each tier (0, 1, …), or null when none is at hand at that tier. When one does not meet the
+   * target, neither does the rule's own interval, so a `keep going` is settled without it; any other
+   * answer is decided on the exact interval (inner-keep-going.ts).
+   */
+  innerIntervalAt?: (level: number, sided: Sided, tier: number) => Interval | null;
 }
 
 export interface RuleDecision {

@@ -29,6 +29,7 @@
  */
 import type { AnalysisSetup, VerdictStatus } from '../model/types.ts';
 import { greenStopLine } from './green-stop-line.ts';
+import { innerKeepGoing } from './inner-keep-going.ts';
 import { kunoStopLine } from './kuno-stop-line.ts';
 import type { Interval, RuleContext, RuleDecision } from './rule-context.ts';
 import { STANDARD_ALPHA_RATIO, standardGroup, standardLevel } from './standard-level.ts';
@@ -55,9 +56,16 @@ function withCountFloor(interval: Interval, n: number, sd: number): Interval {
  * (margin, relative, precision) or decide a limit less, so when the interval at a level just below that
  * floor (a cached quantile) does not meet the target, neither does the rule's own interval: keep going.
  * The floor is lowered by a relative 1e-6 of α so that rounding in the quantile functions cannot turn the
- * comparison. Returns null when the prefilter cannot settle the verdict.
+ * comparison. First, when the data kind's interval can be bounded from inside without an inversion
+ * (ctx.innerIntervalAt: exact Poisson counts, Land), that inner interval at the rule's own level settles every
+ * `keep going` it does not meet. Returns null when the prefilter cannot settle the verdict.
  */
 function quickKeepGoing(ctx: RuleContext, setup: AnalysisSetup, level: number): Interval | null {
+  // the count floor widens about the estimate and is monotone in each bound, so it keeps the containment
+  const inner = innerKeepGoing(ctx, level, setup.sided, (iv) =>
+    ctx.kind === 'count' ? withCountFloor(iv, ctx.n, ctx.stats.sd) : iv,
+  );
+  if (inner !== null) return inner === false ? null : inner; // tried: the floor below would not do better
   const group = standardGroup(setup);
   if (group !== 'count' && group !== 'measurement-log') return null;
   const floorLevel = 1 - STANDARD_ALPHA_RATIO[group] * (1 - setup.level);

@@ -9,6 +9,7 @@ import { fixedPointSampleSize } from '../../plan/fixed-point-sample-size.ts';
 import { kupperHafnerSampleSize } from '../../plan/kupper-hafner-assurance.ts';
 import { dispersionIndexTest } from '../../stats/dispersion-index-test.ts';
 import { garwoodInterval } from '../../stats/garwood-poisson-interval.ts';
+import { isOverdispersed } from '../../stats/overdispersion-verdict.ts';
 import { cachedNormalQuantile } from '../../stats/quantile-cache.ts';
 import { quasiPoissonInterval } from '../../stats/quasi-poisson-interval.ts';
 import type { RunningSummary } from '../../stats/running-summary.ts';
@@ -29,9 +30,10 @@ export function countEstimator(summary: RunningSummary, setup: AnalysisSetup): E
   const variance = summary.variance;
   const population = setup.population;
   const distinct = summary.distinct;
-  const test = n >= 2 && m > 0 ? dispersionIndexTest(n, m, variance) : null;
-  const index: number | null = test === null ? null : test.index;
-  const overdispersed = test?.overdispersed === true;
+  const tested = n >= 2 && m > 0;
+  const index: number | null = tested ? variance / m : null;
+  // the yes/no alone per entry (O(1)); the test's figures only when the details are read
+  const overdispersed = tested && isOverdispersed(n, m, variance);
   let method: CountMethod;
   if (setup.method !== undefined) method = setup.method as CountMethod;
   else method = overdispersed ? 't' : 'poisson-exact';
@@ -60,6 +62,7 @@ export function countEstimator(summary: RunningSummary, setup: AnalysisSetup): E
       meanPerPlot: n >= 1 ? m : null,
       distinct,
     };
+    const test = tested ? dispersionIndexTest(n, m, variance) : null;
     if (test !== null) {
       details.sd = sdCounts;
       details.dispersionIndex = test.index;

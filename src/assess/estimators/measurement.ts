@@ -85,8 +85,12 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
             }
             case 'land': {
               const r = landInterval(logStats, level, sided);
-              const cox = modifiedCoxInterval(logStats, level, sided);
-              return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: cox.estimate * cox.logSe };
+              // the Cox standard error (modified-cox-interval.ts: estimate × log-scale SE), which does not
+              // depend on the level, so no t quantile is asked at each entry's moving level
+              const s2 = logStats.logSd * logStats.logSd;
+              const coxEstimate = Math.exp(logStats.logMean + s2 / 2);
+              const logSe = Math.sqrt(s2 / n + (s2 * s2) / (2 * (n - 1)));
+              return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: coxEstimate * logSe };
             }
           }
         };

@@ -10,9 +10,11 @@
 import { describe, expect, it } from 'vitest';
 import { RunningAssessment, replaySequence } from '../../../src/assess/index.ts';
 import type { AnalysisSetup } from '../../../src/model/types.ts';
+import { landHSolves } from '../../../src/stats/land-interval.ts';
 import { quantileCacheMisses } from '../../../src/stats/quantile-cache.ts';
 import { lognormalVariate } from '../../sim/lognormal-variate.ts';
 import { negativeBinomialVariate } from '../../sim/negative-binomial-variate.ts';
+import { poissonVariate } from '../../sim/poisson-variate.ts';
 import { createRng } from '../../sim/xoshiro128.ts';
 
 const base = { level: 0.95, sided: 'two', rule: 'standard', min: 10 } as const;
@@ -57,4 +59,81 @@ describe('replay: quantile inversions per entry (never-stopping sequences)', () 
         expect(running.assessWith({ projection: false }).verdict.status).toBe('keep going');
       }
     });
+});
+
+describe('replay: one long count sequence costs O(1) per entry (no inversion at each new total)', () => {
+  // Each count entry brings a new total, so the exact Poisson interval and the dispersion test would ask a
+  // chi-square quantile at new degrees of freedom every time (an O(total) inversion in jstat: 117 s for one
+  // sequence of 100,000 counts). With the Wilson–Hilferty bracket they are asked only where it cannot
+  // settle the answer.
+  const base = { kind: 'count', level: 0.95, min: 10, target: { kind: 'relative', value: 1e-4 } } as const;
+  const setups: { name: string; setup: AnalysisSetup }[] = [
+    { name: 'default method, standard rule', setup: { ...base, sided: 'two', rule: 'standard' } },
+    {
+      name: 'exact Poisson, naive rule, upper bound',
+      setup: { ...base, sided: 'upper', rule: 'naive', method: 'poisson-exact' },
+    },
+  ];
+  for (const { name, setup } of setups)
+    it(`${name}: 20,000 Poisson counts never stop and ask a handful of inversions`, () => {
+      const rng = createRng(99);
+      const values = Array.from({ length: 20_000 }, () => poissonVariate(rng, 2));
+      const before = quantileCacheMisses();
+      expect(replaySequence(values, setup).stoppedAt).toBeNull();
+      // the final full assessment asks a few; the per-entry path asks almost none
+      expect(quantileCacheMisses() - before).toBeLessThan(50);
+    });
+  it('the bracket never changes a verdict: near the target, replay stops where the app first stops', () => {
+    const rng = createRng(5);
+    const setup: AnalysisSetup = {
+      ...base,
+      sided: 'two',
+      rule: 'standard',
+      target: { kind: 'relative', value: 0.06 },
+    };
+    let stopped = 0;
+    for (let r = 0; r < 6; r++) {
+      const values = Array.from({ length: 2500 }, () => poissonVariate(rng, 2));
+      const fast = replaySequence(values, setup).stoppedAt;
+      const running = new RunningAssessment(setup);
+      let first: number | null = null;
+      for (const v of values) {
+        running.addValue(v);
+        if (running.assessWith({ projection: false }).verdict.status !== 'keep going') {
+          first = running.n;
+          break;
+        }
+      }
+      expect(fast).toBe(first);
+      if (fast !== null) stopped++;
+    }
+    expect(stopped).toBeGreaterThan(3);
+  });
+});
+
+describe("replay: Land's method solves for H at few entries", () => {
+  it('a second batch of never-stopping sequences solves a small fraction of the factors it would without the table', () => {
+    const setup: AnalysisSetup = {
+      kind: 'measurement',
+      method: 'land',
+      level: 0.95,
+      sided: 'two',
+      rule: 'standard',
+      min: 10,
+      target: { kind: 'relative', value: 0.04 },
+    };
+    const rng = createRng(31);
+    const batch = () =>
+      Array.from({ length: 30 }, () => Array.from({ length: 300 }, () => lognormalVariate(rng, 1, 1)));
+    // the first batch fills the table of nodes (land-inner-bounds.ts)
+    for (const seq of batch()) replaySequence(seq, setup);
+    const seqs = batch();
+    const before = landHSolves();
+    let entries = 0;
+    for (const seq of seqs) entries += replaySequence(seq, setup).stoppedAt ?? seq.length;
+    // without the table each entry past the minimum solves two factors (four with the floor prefilter); the
+    // table's nodes are shared by all sequences, so the share falls further as the batch grows (the replay
+    // benchmark: test/bench/replay-bench.md)
+    expect(landHSolves() - before).toBeLessThan(entries / 3);
+  });
 });

@@ -17,6 +17,7 @@ import { bernoulliVariate } from '../../sim/bernoulli-variate.ts';
 import { lognormalVariate } from '../../sim/lognormal-variate.ts';
 import { negativeBinomialVariate } from '../../sim/negative-binomial-variate.ts';
 import { normalVariate } from '../../sim/normal-variate.ts';
+import { poissonVariate } from '../../sim/poisson-variate.ts';
 import { createRng, type Rng } from '../../sim/xoshiro128.ts';
 
 const RULES: RuleName[] = ['naive', 'standard', 'strict', 'sprt'];
@@ -63,6 +64,47 @@ const cases: Case[] = [
       sprt: { ...sprt, lowerBound: 1.5, upperBound: 2.5 },
     },
     draw: (g) => negativeBinomialVariate(g, 2, 2),
+  },
+  {
+    // near-Poisson counts: the default method switches between exact Poisson and t with the dispersion test,
+    // and the exact Poisson interval is bounded without inversions in replay (garwood-poisson-bracket.ts)
+    setup: {
+      kind: 'count',
+      level: 0.95,
+      sided: 'two',
+      rule: 'standard',
+      min: 10,
+      target: { kind: 'relative', value: 0.2 },
+      sprt: { ...sprt, lowerBound: 1.6, upperBound: 2.5 },
+    },
+    draw: (g) => poissonVariate(g, 2),
+  },
+  {
+    setup: {
+      kind: 'count',
+      level: 0.9,
+      sided: 'upper',
+      rule: 'standard',
+      method: 'poisson-exact',
+      min: 10,
+      target: { kind: 'margin', value: 0.35 },
+      sprt: { ...sprt, lowerBound: 1.6, upperBound: 2.5 },
+    },
+    draw: (g) => poissonVariate(g, 2),
+  },
+  {
+    // Land's method: replay bounds it from inside with a table of nodes (land-inner-bounds.ts)
+    setup: {
+      kind: 'measurement',
+      level: 0.95,
+      sided: 'two',
+      rule: 'standard',
+      method: 'land',
+      min: 12,
+      target: { kind: 'relative', value: 0.3 },
+      sprt: { ...sprt, lowerBound: 0.8, upperBound: 1.25 },
+    },
+    draw: (g) => lognormalVariate(g, 1, 1),
   },
   {
     setup: {
@@ -143,7 +185,7 @@ describe('no stop on zero spread, all-zero counts or one distinct value', () => 
 });
 
 describe('pass/fail with one outcome only: never `enough`, but a limit may be decided (zero acceptance)', () => {
-  const pf = cases[3]!.setup;
+  const pf = cases.find((c) => c.setup.kind === 'pass-fail')!.setup;
   for (const rule of ['naive', 'standard', 'strict'] as const) {
     it(`${rule}: all-pass or all-fail items never meet a margin target; the first stop comes after the first other outcome`, () => {
       const setup = { ...pf, rule };
