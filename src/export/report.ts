@@ -22,6 +22,7 @@ import type { Assessment } from '../model/types.ts';
 import {
   CAUTIONS,
   confidenceWords,
+  decisionWords,
   doneWords,
   estimateWords,
   intervalWords,
@@ -54,6 +55,12 @@ export interface ReportOptions {
   coverage: string | null;
   /** When the report was made (ISO 8601); left out when absent so the page is reproducible. */
   generatedAt?: string;
+  /**
+   * The decimal separator of the figures in words, as on the study's screens: the phone passes the one it
+   * shows (the study's own, else the phone's locale); otherwise the study's own, else a point. The exact
+   * figures under "Check and reproduce" always use a point: they are for machines.
+   */
+  decimalSeparator?: '.' | ',';
 }
 
 /** Estimators of src/design, by their `method` name (the report says their coverage was not benchmarked). */
@@ -146,15 +153,16 @@ export async function reportHtml(bundle: Bundle, options: ReportOptions): Promis
     });
   const first = entries[0]?.at;
   const last = entries[entries.length - 1]?.at;
+  const sep = options.decimalSeparator ?? setup.decimalSeparator ?? '.';
   const more = moreWords(a);
   const done = doneWords(a);
 
   const setupRows = [
-    row('Data kind', esc(kindWords(setup))),
+    row('Data kind', esc(kindWords(setup, sep))),
     setup.outcomeName ? row('Measured / counted', esc(setup.outcomeName)) : '',
     setup.taxon ? row('Taxon', `<i>${esc(setup.taxon)}</i>`) : '',
-    row('Target', esc(targetWords(setup.target, setup))),
-    row('Confidence level', esc(confidenceWords(setup.level, setup.sided))),
+    row('Target', esc(targetWords(setup.target, setup, sep))),
+    row('Confidence level', esc(confidenceWords(setup.level, setup.sided, sep))),
     row('Interval method', esc(setup.method ?? 'the data kind’s default')),
     row('Sampling design', esc(designWords(bundle))),
     setup.strata !== undefined && setup.strata.length > 0 ? row('Strata', esc(strataWords(setup))) : '',
@@ -173,7 +181,7 @@ export async function reportHtml(bundle: Bundle, options: ReportOptions): Promis
     setup.population !== undefined ? row('Population / lot size', esc(setup.population)) : '',
     setup.max !== undefined ? row('Planned maximum', esc(setup.max)) : '',
     setup.reportingLimit !== undefined
-      ? row('Reporting limit', esc(withUnit(plain(setup.reportingLimit), valueUnit(setup))))
+      ? row('Reporting limit', esc(withUnit(plain(setup.reportingLimit, sep), valueUnit(setup))))
       : '',
     setup.samplingProtocol ? row('Sampling protocol', esc(setup.samplingProtocol)) : '',
     row('Study created', esc(study.createdAt)),
@@ -186,19 +194,20 @@ export async function reportHtml(bundle: Bundle, options: ReportOptions): Promis
   const shareRows = shares
     .map(
       (s) =>
-        `<tr><td>${esc(s.device)}</td><td>${s.counted}</td><td>${s.entries - s.counted}</td><td>${s.voids}</td><td>${esc(percent(s.share))}</td></tr>`,
+        `<tr><td>${esc(s.device)}</td><td>${s.counted}</td><td>${s.entries - s.counted}</td><td>${s.voids}</td><td>${esc(percent(s.share, sep))}</td></tr>`,
     )
     .join('\n');
 
   const method = [
     `The estimate is ${esc(estimatorWords(a, setup))}.`,
-    `The interval is ${esc(methodWords(a))}, reported as a ${sidedWords(a.sided)} at ${esc(levelWords(a.level))}${a.level !== setup.level ? ` (the study’s nominal level is ${esc(levelWords(setup.level))}; the stopping rule reports at its own level)` : ''}.`,
+    `The interval is ${esc(methodWords(a, sep))}, reported as a ${sidedWords(a.sided)} at ${esc(levelWords(a.level, sep))}${a.level !== setup.level ? ` — wider than the chosen ${esc(levelWords(setup.level, sep))} because the data were looked at after every entry, and a rule that looks that often must check a wider interval to keep its promise` : ''}.`,
+    `The rule's own account: ${esc(a.verdict.message)}`,
     `Whether there is enough was decided with ${esc(ruleExplained(setup.rule))}.`,
     `Measured coverage of this rule: ${options.coverage === null ? 'not yet measured' : esc(options.coverage)}.`,
     options.coverage !== null &&
     setup.rule !== 'sprt' &&
     Math.abs(setup.level * 100 - COVERAGE_SOURCE.nominalPercent) > 1e-9
-      ? `(The benchmark ran at ${COVERAGE_SOURCE.nominalPercent} %; this study uses ${esc(levelWords(setup.level))}.)`
+      ? `(The benchmark ran at ${COVERAGE_SOURCE.nominalPercent} %; this study uses ${esc(levelWords(setup.level, sep))}.)`
       : '',
     DESIGN_METHODS.has(a.method)
       ? 'That benchmark simulates simple random samples; the coverage of this design-based interval under the stopping rule has not been measured.'
@@ -235,11 +244,11 @@ export async function reportHtml(bundle: Bundle, options: ReportOptions): Promis
 <section class="keep">
 <h2>Result</h2>
 <p class="verdict">${esc(a.verdict.status)}</p>
-<p>${esc(a.verdict.message)}</p>
+<p>${esc(decisionWords(a, setup, sep))}</p>
 ${done ? `<p>${esc(done)}</p>` : ''}
 <table>
-${row('Estimate', esc(estimateWords(a, setup)))}
-${row(`Interval (${confidenceWords(a.level, a.sided)})`, esc(intervalWords(a, setup)))}
+${row('Estimate', esc(estimateWords(a, setup, sep)))}
+${row(`Interval (${confidenceWords(a.level, a.sided, sep)})`, esc(intervalWords(a, setup, sep)))}
 ${more ? row('More needed', esc(more)) : ''}
 ${row('Counted entries', esc(a.n))}
 </table>

@@ -2,6 +2,8 @@
  * The export files for one study, built by the pure core from the stored records (web/core.ts).
  * Names: `<study name slug>-<date>.<ext>`, safe on every file system.
  */
+
+import { studySep } from '../app/number-style.ts';
 import {
   type Bundle,
   coverageStatement,
@@ -87,7 +89,11 @@ export async function buildExport(
           {
             name: `${stem}-report.html`,
             type: 'text/html',
-            text: await reportHtml(bundle, { coverage: coverageStatement(study.setup) }),
+            // the report's words use the separator the study's screens show
+            text: await reportHtml(bundle, {
+              coverage: coverageStatement(study.setup),
+              decimalSeparator: studySep(study.setup),
+            }),
           },
         ],
       };
