@@ -40,7 +40,9 @@ describe('measurement pad: bad input is refused, nothing saved', () => {
     ['1 000', /a space at position 2 of “1 000”/],
     ['5-', /a minus sign may only come first/],
     ['--5', /a minus sign may only come first/],
-    [',', /has no digits/],
+    ['.', /has no digits/],
+    // a point study refuses the comma (a hardware keyboard can type it): never read as a thousands mark
+    ['1,000', /“1,000” has a comma; this study writes decimals with a point/],
     ['1234567890123456', /16 digits/],
     ['9999999999999', /too large/],
   ];
@@ -72,7 +74,7 @@ describe('measurement pad: bad input is refused, nothing saved', () => {
 
   it('refuses a 10,000-character note without shortening it', async () => {
     const { onSave, input, save } = setup('measurement');
-    type(input, '3,5');
+    type(input, '3.5');
     fireEvent.click(screen.getByRole('button', { name: 'Note' }));
     const note = screen.getByLabelText('Note for the next entry') as HTMLTextAreaElement;
     const long = 'x'.repeat(10_000);
@@ -85,7 +87,7 @@ describe('measurement pad: bad input is refused, nothing saved', () => {
     );
     expect(onSave).not.toHaveBeenCalled();
     expect(note.value).toHaveLength(10_000);
-    expect(input.value).toBe('3,5');
+    expect(input.value).toBe('3.5');
   });
 
   it('a failed write shows its message and keeps the typed value (and the note)', async () => {
@@ -93,7 +95,7 @@ describe('measurement pad: bad input is refused, nothing saved', () => {
       throw new Error('Not saved: the phone has no storage space left for this app.');
     });
     const { input, save } = setup('measurement', failing);
-    type(input, '4,75');
+    type(input, '4.75');
     fireEvent.click(screen.getByRole('button', { name: 'Note' }));
     fireEvent.input(screen.getByLabelText('Note for the next entry'), {
       target: { value: 'by the culvert' },
@@ -101,7 +103,7 @@ describe('measurement pad: bad input is refused, nothing saved', () => {
     fireEvent.click(save);
     await waitFor(() => expect(message()).toMatch(/no storage space/));
     expect(failing).toHaveBeenCalledWith({ value: 4.75, note: 'by the culvert' });
-    expect(input.value).toBe('4,75');
+    expect(input.value).toBe('4.75');
     expect((screen.getByLabelText('Note for the next entry') as HTMLTextAreaElement).value).toBe(
       'by the culvert',
     );

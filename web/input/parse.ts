@@ -20,7 +20,12 @@ function fail(message: string): Parsed {
   return { ok: false, message };
 }
 
-export function parseMeasurement(raw: string, field = 'Value'): Parsed {
+/**
+ * `sep`: the study's decimal separator, when known. Then the other mark is refused (a hardware keyboard can
+ * type it), so "1,000" in a point study is never read as 1. Without it, a comma or point followed by exactly
+ * three digits ("1,000", "12.500") could be a thousands separator or a decimal one: refused with both readings.
+ */
+export function parseMeasurement(raw: string, field = 'Value', sep?: '.' | ','): Parsed {
   const text = raw.trim();
   if (text === '') return fail(`${field}: nothing typed yet. Key in a number, then save.`);
   const bad = /[^0-9.,-]/.exec(text);
@@ -38,6 +43,18 @@ export function parseMeasurement(raw: string, field = 'Value'): Parsed {
   if (seps > 1) {
     return fail(
       `${field}: “${text}” has ${seps} decimal separators. Use one comma or point, and no thousands separators.`,
+    );
+  }
+  const other = sep === '.' ? ',' : sep === ',' ? '.' : null;
+  if (other !== null && text.includes(other))
+    return fail(
+      `${field}: “${text}” has a ${other === ',' ? 'comma' : 'point'}; this study writes decimals with a ${sep === ',' ? 'comma' : 'point'} and no thousands separators.`,
+    );
+  if (sep === undefined && /^-?\d{1,3}[.,]\d{3}$/.test(text)) {
+    const whole = text.replace(/[.,]/, '');
+    const decimal = text.replace(',', '.');
+    return fail(
+      `${field}: “${text}” could be ${whole} or ${decimal}; type it without a thousands separator, or set the study's decimal separator.`,
     );
   }
   const digits = text.replace(/[^0-9]/g, '');

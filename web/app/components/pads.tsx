@@ -167,7 +167,7 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
       });
   };
   const submit = () => {
-    const p = parseMeasurement(text, 'Value');
+    const p = parseMeasurement(text, 'Value', props.sep);
     void save(
       p.ok ? { value: p.value, ...(censored ? { censored: true } : {}) } : { error: p.message },
       () => {
