@@ -25,6 +25,7 @@ export default defineConfig(({ mode }): UserConfig => {
           input: {
             'sure-enough': resolve(projectRoot, 'src/cli/main.ts'),
             'coverage-bench': resolve(projectRoot, 'test/bench/coverage-bench.ts'),
+            'replay-bench': resolve(projectRoot, 'test/bench/replay-bench.ts'),
           },
           output: { entryFileNames: '[name].mjs', format: 'es' },
         },

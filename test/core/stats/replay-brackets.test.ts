@@ -124,7 +124,7 @@ describe('inner Land interval (Land 1971) from the table of nodes', () => {
     expect(checked).toBe(60);
   });
   it('lies inside the app’s own Land interval at levels and spreads the rules use, every tier', () => {
-    for (const n of [3, 4, 7, 12, 30, 101, 640, 3000])
+    for (const n of [3, 4, 7, 12, 30, 65, 101, 640, 3000, 20_001])
       for (const s of [0.013, 0.2, 0.5, 0.8326, 1.27, 2.4])
         for (const level of [0.9, 0.95, 0.9625, 0.9731, 0.99])
           for (const sided of ['two', 'upper', 'lower'] as Sided[]) {
@@ -158,6 +158,20 @@ describe('inner Land interval (Land 1971) from the table of nodes', () => {
           if (!Number.isNaN(prev)) {
             if (p > 0.5) expect(d, `n=${n} p=${p} s=${s}`).toBeGreaterThan(prev);
             else expect(d, `n=${n} p=${p} s=${s}`).toBeLessThan(prev);
+          }
+          prev = d;
+        }
+      }
+  });
+  it('and on the interval narrowing as n grows (tail probabilities ≤ 0.05, n ≥ 64: where n is gridded)', () => {
+    for (const s of [0.01, 0.3, 0.83, 2, 6])
+      for (const p of [1e-5, 0.005, 0.05, 0.95, 0.995, 1 - 1e-5]) {
+        let prev = Number.NaN;
+        for (let n = 64; n < 300_000; n = Math.ceil(n * 1.09)) {
+          const d = (s * landH(n, s, p)) / Math.sqrt(n - 1);
+          if (!Number.isNaN(prev)) {
+            if (p > 0.5) expect(d, `n=${n} p=${p} s=${s}`).toBeLessThan(prev);
+            else expect(d, `n=${n} p=${p} s=${s}`).toBeGreaterThan(prev);
           }
           prev = d;
         }
