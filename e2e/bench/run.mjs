@@ -397,17 +397,27 @@ async function main() {
     app5000 = await appTaps(page, big, TAPS, WARMUP);
     log('app: the same with 50 observations');
     app50 = await appTaps(page, small, TAPS, WARMUP);
-    // the running snapshot is written once saves pause; the cold starts below must find it
+    // the running snapshot is written once saves pause; the cold starts below must find it current (taken
+    // from the log as it is: same record count), or they would time the rebuild from the log instead
     await page.waitForFunction(
       (ids) =>
         new Promise((resolve) => {
           const req = indexedDB.open('sure-enough');
           req.onsuccess = () => {
-            const get = req.result.transaction('snapshots').objectStore('snapshots').getAllKeys();
-            get.onsuccess = () => {
+            const tx = req.result.transaction(['snapshots', 'observations']);
+            const idx = tx.objectStore('observations').index('byStudySeq');
+            const checks = ids.map(
+              (id) =>
+                new Promise((ok) => {
+                  const snap = tx.objectStore('snapshots').get(id);
+                  const count = idx.count(IDBKeyRange.bound([id, 0], [id, Number.POSITIVE_INFINITY]));
+                  tx.addEventListener('complete', () => ok(snap.result?.count === count.result));
+                }),
+            );
+            Promise.all(checks).then((r) => {
               req.result.close();
-              resolve(ids.every((id) => get.result.includes(id)));
-            };
+              resolve(r.every(Boolean));
+            });
           };
         }),
       [big, small],

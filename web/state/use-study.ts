@@ -82,16 +82,26 @@ export async function openSession(id: string, from: OpenFrom): Promise<Opened> {
   return { missing: false, session: new StudySession(study, records) };
 }
 
-let snapshotTimer: ReturnType<typeof setTimeout> | undefined;
+/** One pending snapshot write per study (switching studies must not cancel the other's). */
+const snapshotTimers = new Map<string, ReturnType<typeof setTimeout>>();
 /** Writes the session's snapshot once saves have paused (a cache: a failure only costs a rebuild). */
-function scheduleSnapshot(s: StudySession): void {
-  clearTimeout(snapshotTimer);
-  snapshotTimer = setTimeout(() => {
-    const write = () => void writeSnapshot(s.snapshot()).catch(() => undefined);
-    const idle = (globalThis as { requestIdleCallback?: (fn: () => void) => void }).requestIdleCallback;
-    if (idle) idle(write);
-    else write();
-  }, SNAPSHOT_DELAY_MS);
+function scheduleSnapshot(s: StudySession, delay = SNAPSHOT_DELAY_MS): void {
+  const id = s.study.id;
+  clearTimeout(snapshotTimers.get(id));
+  snapshotTimers.set(
+    id,
+    setTimeout(() => {
+      snapshotTimers.delete(id);
+      const write = () => void writeSnapshot(s.snapshot()).catch(() => undefined);
+      const idle = (globalThis as { requestIdleCallback?: (fn: () => void) => void }).requestIdleCallback;
+      if (idle) idle(write);
+      else write();
+    }, delay),
+  );
+}
+/** When the screen closes, a pending snapshot is written at once (still after the frame, when idle). */
+function flushSnapshot(s: StudySession | null): void {
+  if (s !== null && snapshotTimers.has(s.study.id)) scheduleSnapshot(s, 0);
 }
 /** Saves closer together than this share one snapshot write. */
 export const SNAPSHOT_DELAY_MS = 1000;
@@ -147,6 +157,7 @@ export function useStudy(id: string, from: OpenFrom = 'log'): StudyView {
     })();
     return () => {
       live = false;
+      flushSnapshot(ref.current);
     };
   }, [id, from]);
 
