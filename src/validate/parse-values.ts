@@ -66,13 +66,12 @@ function parseNumber(
   // counts are whole numbers written with digits only: "1,000" and "1.000" are refused, never guessed
   if (kind === 'count' && /^[+-]?\d{1,3}([.,]\d{3})+$/.test(s))
     return `${show(s)} has a separator; write a count with digits only (e.g. ${s.replace(/[.,]/g, '')})`;
-  if (separator === ',' && s.includes('.') && !s.includes(','))
-    return `${show(s)} uses a decimal point, but this study writes decimals with a comma (${s.replace('.', ',')})`;
-  if (separator === '.' && s.includes(','))
-    return `${show(s)} has a comma, but this study writes decimals with a point and no thousands separators`;
+  // a point followed by exactly three digits in a comma study could be a thousands mark there
+  if (separator === ',' && /^[+-]?\d{1,3}\.\d{3}$/.test(s))
+    return `${show(s)} could be ${s.replace('.', '')} or ${s}; write it without a thousands separator (this study writes decimals with a comma)`;
   if (NUMBER.test(s)) return Number(s);
   if (GROUPED.test(s)) return `${show(s)} has thousands separators; write ${s.replace(/,/g, '')}`;
-  if (allowCommaDecimal && separator === undefined && COMMA_THOUSANDS.test(s)) {
+  if (allowCommaDecimal && separator !== ',' && COMMA_THOUSANDS.test(s)) {
     const thousands = s.replace(/,/g, '');
     const decimal = s.replace(',', '.');
     return `${show(s)} could be ${thousands} (comma between thousands) or ${decimal} (decimal comma); write ${thousands} or ${decimal}, or set the study's decimal separator`;

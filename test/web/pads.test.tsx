@@ -42,7 +42,10 @@ describe('measurement pad: bad input is refused, nothing saved', () => {
     ['--5', /a minus sign may only come first/],
     ['.', /has no digits/],
     // a point study refuses the comma (a hardware keyboard can type it): never read as a thousands mark
-    ['1,000', /“1,000” has a comma; this study writes decimals with a point/],
+    [
+      '1,000',
+      /“1,000” could be 1000 or 1\.000; type it without a thousands separator \(this study writes decimals with a point\)/,
+    ],
     ['1234567890123456', /16 digits/],
     ['9999999999999', /too large/],
   ];

@@ -14,13 +14,14 @@ describe('parseMeasurement and the decimal separator', () => {
     expect(parseMeasurement('12.500').ok).toBe(false);
     expect(parseMeasurement('4,25')).toEqual({ ok: true, value: 4.25 });
   });
-  it('a comma study reads 12,500 as 12.5 and refuses the point', () => {
+  it('a comma study reads 12,500 as 12.5, refuses 1.000, and reads an unambiguous 12.5', () => {
     expect(parseMeasurement('12,500', 'Value', ',')).toEqual({ ok: true, value: 12.5 });
-    expect(parseMeasurement('12.5', 'Value', ',')).toEqual({
+    expect(parseMeasurement('1.000', 'Value', ',')).toEqual({
       ok: false,
       message:
-        'Value: “12.5” has a point; this study writes decimals with a comma and no thousands separators.',
+        'Value: “1.000” could be 1000 or 1.000; type it without a thousands separator (this study writes decimals with a comma).',
     });
+    expect(parseMeasurement('12.5', 'Value', ',')).toEqual({ ok: true, value: 12.5 });
   });
   it('a point study reads 12.500 as 12.5 and refuses the comma', () => {
     expect(parseMeasurement('12.500', 'Value', '.')).toEqual({ ok: true, value: 12.5 });

@@ -21,9 +21,10 @@ function fail(message: string): Parsed {
 }
 
 /**
- * `sep`: the study's decimal separator, when known. Then the other mark is refused (a hardware keyboard can
- * type it), so "1,000" in a point study is never read as 1. Without it, a comma or point followed by exactly
- * three digits ("1,000", "12.500") could be a thousands separator or a decimal one: refused with both readings.
+ * `sep`: the study's decimal separator, when known. A comma or point followed by exactly three digits
+ * ("1,000", "12.500") could be a thousands mark or a decimal one: read by the study's separator when it is
+ * that mark, refused with both readings otherwise (so "1,000" in a point study is never read as 1). Any
+ * other single mark can only be a decimal one ("12,5" = 12.5 on any phone) and is read as such.
  */
 export function parseMeasurement(raw: string, field = 'Value', sep?: '.' | ','): Parsed {
   const text = raw.trim();
@@ -45,16 +46,12 @@ export function parseMeasurement(raw: string, field = 'Value', sep?: '.' | ','):
       `${field}: “${text}” has ${seps} decimal separators. Use one comma or point, and no thousands separators.`,
     );
   }
-  const other = sep === '.' ? ',' : sep === ',' ? '.' : null;
-  if (other !== null && text.includes(other))
-    return fail(
-      `${field}: “${text}” has a ${other === ',' ? 'comma' : 'point'}; this study writes decimals with a ${sep === ',' ? 'comma' : 'point'} and no thousands separators.`,
-    );
-  if (sep === undefined && /^-?\d{1,3}[.,]\d{3}$/.test(text)) {
+  const grouped = /^-?\d{1,3}([.,])\d{3}$/.exec(text);
+  if (grouped && grouped[1] !== sep) {
     const whole = text.replace(/[.,]/, '');
     const decimal = text.replace(',', '.');
     return fail(
-      `${field}: “${text}” could be ${whole} or ${decimal}; type it without a thousands separator, or set the study's decimal separator.`,
+      `${field}: “${text}” could be ${whole} or ${decimal}; type it without a thousands separator${sep === undefined ? ", or set the study's decimal separator" : ` (this study writes decimals with a ${sep === ',' ? 'comma' : 'point'})`}.`,
     );
   }
   const digits = text.replace(/[^0-9]/g, '');

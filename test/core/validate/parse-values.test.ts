@@ -83,9 +83,14 @@ describe('numbers whose reading depends on the locale', () => {
     });
     const point = parseValues('12,500\n', 'measurement', { decimalSeparator: '.' });
     expect(point.ok).toBe(false);
-    const comma = parseValues('12.5\n', 'measurement', { decimalSeparator: ',' });
+    const comma = parseValues('1.000\n', 'measurement', { decimalSeparator: ',' });
     expect(comma.ok).toBe(false);
-    if (!comma.ok) expect(comma.errors[0]).toContain('this study writes decimals with a comma (12,5)');
+    if (!comma.ok) expect(comma.errors[0]).toContain('"1.000" could be 1000 or 1.000');
+    // one decimal mark that cannot be a thousands mark is read in any study
+    expect(parseValues('12.5\n', 'measurement', { decimalSeparator: ',' })).toMatchObject({
+      ok: true,
+      points: [{ value: 12.5 }],
+    });
   });
   it('counts take digits only: 1,000 and 1.000 are refused, not read as 1', () => {
     for (const typed of ['1,000', '1.000']) {
