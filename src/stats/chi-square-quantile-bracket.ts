@@ -20,28 +20,29 @@ import { normalQuantile } from './distributions.ts';
 const ERROR_BOUND = 0.1;
 const P_LOW = 1e-6;
 
-// the last two probabilities asked (a two-sided interval asks p and 1 − p; the dispersion test one fixed p):
-// a Map would fill with the standard rule's level, which moves with the data
-let p1 = Number.NaN;
-let z1 = 0;
-let p2 = Number.NaN;
-let z2 = 0;
+// The last few probabilities asked and their normal quantiles: per count entry the dispersion test asks one
+// fixed p and a two-sided exact Poisson interval p and 1 − p; a Map would fill with the standard rule's
+// level, which moves with the data.
+const SLOTS = 4;
+const memoP = new Float64Array(SLOTS).fill(Number.NaN);
+const memoZ = new Float64Array(SLOTS);
+let next = 0;
+function quantileOf(p: number): number {
+  for (let i = 0; i < SLOTS; i++) if (memoP[i] === p) return memoZ[i] as number;
+  const z = normalQuantile(p);
+  memoP[next] = p;
+  memoZ[next] = z;
+  next = (next + 1) % SLOTS;
+  return z;
+}
 
 export function chiSquareQuantileBracket(p: number, df: number): { lo: number; hi: number } | null {
   if (!(p >= P_LOW && p <= 1 - P_LOW) || !(df > 0)) return null;
-  let z: number;
-  if (p === p1) z = z1;
-  else if (p === p2) z = z2;
-  else {
-    z = normalQuantile(p);
-    p2 = p1;
-    z2 = z1;
-    p1 = p;
-    z1 = z;
-  }
+  const z = quantileOf(p);
   const c = 2 / (9 * df);
   const w = 1 - c + z * Math.sqrt(c);
   const q = w > 0 ? df * w * w * w : 0;
-  const e = (ERROR_BOUND * (1 + Math.abs(z) ** 3)) / Math.sqrt(df);
+  const a = Math.abs(z);
+  const e = (ERROR_BOUND * (1 + a * a * a)) / Math.sqrt(df);
   return { lo: Math.max(0, q - e), hi: q + e };
 }

@@ -1,6 +1,6 @@
 /**
  * Cost of replay's per-entry path, counted rather than timed (speed is never tested by a timed unit
- * test; the timings are in test/bench/coverage.md). The standard rule's internal level of counts and
+ * test; the timings are in test/bench/replay-bench.md, from `npm run bench:replay`). The standard rule's internal level of counts and
  * log-scale measurements moves with the data (standard-level.ts), so a naive per-entry path inverts a
  * chi-square or t distribution at a new probability after every entry (it took 150–200 s for 20,000
  * sequences of 1,000 counts). The stop-only prefilter (standard.ts) must keep the number of numerical
