@@ -40,7 +40,7 @@ export type ParseResult =
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 const COMMA_DECIMAL = /^[+-]?\d*,\d+([eE][+-]?\d+)?$/;
 /** `1,000` or `12,500`: one thousand or one; twelve thousand five hundred or twelve and a half. */
-const COMMA_THOUSANDS = /^[+-]?\d{1,3},\d{3}$/;
+const COMMA_THOUSANDS = /^[+-]?[1-9]\d{0,2},\d{3}$/;
 /** `3,250,000`: only thousands separators can make sense of it, and they are not allowed. */
 const GROUPED = /^[+-]?\d{1,3}(,\d{3}){2,}$/;
 
@@ -67,7 +67,7 @@ function parseNumber(
   if (kind === 'count' && /^[+-]?\d{1,3}([.,]\d{3})+$/.test(s))
     return `${show(s)} has a separator; write a count with digits only (e.g. ${s.replace(/[.,]/g, '')})`;
   // a point followed by exactly three digits in a comma study could be a thousands mark there
-  if (separator === ',' && /^[+-]?\d{1,3}\.\d{3}$/.test(s))
+  if (separator === ',' && /^[+-]?[1-9]\d{0,2}\.\d{3}$/.test(s))
     return `${show(s)} could be ${s.replace('.', '')} or ${s}; write it without a thousands separator (this study writes decimals with a comma)`;
   if (NUMBER.test(s)) return Number(s);
   if (GROUPED.test(s)) return `${show(s)} has thousands separators; write ${s.replace(/,/g, '')}`;

@@ -259,7 +259,7 @@ describe('values importer under fuzzing (fast-check)', () => {
           const r = parseValues(forms.join('\n'), 'measurement');
           // a decimal comma followed by exactly three digits (1,234) could be a thousands separator:
           // refused with both readings, never guessed
-          const ambiguous = forms.findIndex((f) => /^-?\d{1,3},\d{3}$/.test(f));
+          const ambiguous = forms.findIndex((f) => /^-?[1-9]\d{0,2},\d{3}$/.test(f));
           if (ambiguous >= 0) {
             expect(r.ok).toBe(false);
             if (!r.ok) expect(r.errors[0]).toContain(`line ${ambiguous + 1}: "${forms[ambiguous]}" could be`);

@@ -13,6 +13,8 @@ describe('parseMeasurement and the decimal separator', () => {
     });
     expect(parseMeasurement('12.500').ok).toBe(false);
     expect(parseMeasurement('4,25')).toEqual({ ok: true, value: 4.25 });
+    // a leading zero is never a thousands group: 0,005 is five thousandths on any phone
+    expect(parseMeasurement('0,005')).toEqual({ ok: true, value: 0.005 });
   });
   it('a comma study reads 12,500 as 12.5, refuses 1.000, and reads an unambiguous 12.5', () => {
     expect(parseMeasurement('12,500', 'Value', ',')).toEqual({ ok: true, value: 12.5 });

@@ -46,7 +46,7 @@ export function parseMeasurement(raw: string, field = 'Value', sep?: '.' | ','):
       `${field}: “${text}” has ${seps} decimal separators. Use one comma or point, and no thousands separators.`,
     );
   }
-  const grouped = /^-?\d{1,3}([.,])\d{3}$/.exec(text);
+  const grouped = /^-?[1-9]\d{0,2}([.,])\d{3}$/.exec(text);
   if (grouped && grouped[1] !== sep) {
     const whole = text.replace(/[.,]/, '');
     const decimal = text.replace(',', '.');
