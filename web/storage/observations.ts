@@ -90,7 +90,18 @@ export function addEntry(
       const added = tx.objectStore('observations').add(rec);
       // when the lock below refuses, the abort rejects the add as well: that rejection is expected
       added.catch(() => undefined);
-      if (!slot || slot.lock) await lockStudy(tx as WriteTx, studyId, at);
+      if (!slot || slot.lock) {
+        try {
+          await lockStudy(tx as WriteTx, studyId, at);
+        } catch (err) {
+          // a refused add (another tab took this seq: ConstraintError) aborts the transaction, and the
+          // lock's request then fails with AbortError: report the add's own error, which the caller retries
+          throw await added.then(
+            () => err,
+            (addErr: unknown) => addErr,
+          );
+        }
+      }
       await added;
       return rec;
     });
