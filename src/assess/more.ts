@@ -80,6 +80,16 @@ export function projectMore(
   };
   if (raw.assured !== undefined && Number.isFinite(raw.assured))
     more.assured = Math.max(0, clampTotal(Math.ceil(raw.assured - 1e-9)) - n);
+  // the projection may think the target is met while the rule (which checks a wider interval, or a limit
+  // from the other side) has not stopped: never "keep going" with 0 more
+  if (more.likely === 0 && (cap === undefined || n < cap)) {
+    details.moreFloor =
+      'the projection reaches the target now, but the rule has not stopped: at least one more';
+    more.likely = 1;
+    more.low = Math.max(1, more.low);
+    more.high = Math.max(1, more.high);
+    more.atLeast = true;
+  }
   if (cap !== undefined && likelyTotal >= cap)
     warnings.push(`The projection reaches the whole population${reachedWords(setup)}.`);
   if (setup.max !== undefined && likelyTotal > setup.max)

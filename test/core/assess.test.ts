@@ -242,3 +242,39 @@ describe('pass/fail with one outcome only: the exact one-sided bound on the open
     expect(none.method).toBe(all.method);
   });
 });
+
+describe('how many more for a pass/fail limit decision', () => {
+  // One counted item in 25, limit 10 %, one-sided 95 % (naive rule, so the checked level is the chosen one):
+  // Wilson's bound clears the limit when n > z²·L(1 − L)/(p − L)² = 67.6 for p = 0.04 — checked against an
+  // independent Wilson bound at fractional x: 0.10039 at n = 67 and 0.09978 at n = 68 [derived:
+  //   python3 -c "from scipy.stats import norm; z=norm.ppf(0.95); print(z*z*0.09/(0.04-0.1)**2)"  → 67.6386]
+  // so 43 more if the rate stays as observed (it said about 7,516 before, from a centre pulled onto the limit)
+  it('one defect in 25 items, limit 10 %: about 43 more, and stable as the next items come', () => {
+    const setup: AnalysisSetup = {
+      ...base,
+      kind: 'pass-fail',
+      rule: 'naive',
+      sided: 'upper',
+      target: { kind: 'limit', value: 0.1 },
+    };
+    const items = Array.from({ length: 25 }, (_, i) => ({ value: i === 7 ? 1 : 0 }));
+    const a = assess(items, setup);
+    expect(a.verdict.status).toBe('keep going');
+    expect(a.more?.likely).toBe(43);
+    // two more good items: the figure moves a little, not by orders of magnitude
+    const b = assess([...items, { value: 0 }, { value: 0 }], setup);
+    expect(b.more!.likely).toBeGreaterThan(20);
+    expect(b.more!.likely).toBeLessThan(43);
+  });
+  it('never keep going with 0 more: 60 items, none counted, margin ±10 points', () => {
+    // the margin is met on paper (Wilson's half-width at 0/60 is under 0.1), but one outcome only is never
+    // `enough` for a margin target: the line said "keep going" and "0 more"
+    const a = assess(
+      Array.from({ length: 60 }, () => ({ value: 0 })),
+      { ...base, kind: 'pass-fail', target: { kind: 'margin', value: 0.1 } },
+    );
+    expect(a.verdict.status).toBe('keep going');
+    expect(a.more).toMatchObject({ likely: 1, atLeast: true });
+    expect(a.details.moreFloor).toMatch(/at least one more/);
+  });
+});

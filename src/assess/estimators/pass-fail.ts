@@ -96,9 +96,13 @@ export function passFailEstimator(summary: RunningSummary, setup: AnalysisSetup)
     const at = (q: number): number => {
       const pp = clampP(q);
       if (target.kind === 'limit') {
+        // Wilson's bound is the inversion of the score test, whose variance is the limit's L(1 − L): with a
+        // rate that stays at q, the bound clears L exactly when n > z²·L(1 − L)/(q − L)² (Wilson 1927,
+        // JASA 22:209–212). The Agresti–Coull centre used before pulls small counts toward ½ — and onto the
+        // limit — which made one defect in 25 items project thousands more.
         const d = Math.abs(pp - target.value);
         if (!(d > 0)) return Number.POSITIVE_INFINITY;
-        return proportionSampleSize({ p: pp, target: 'margin', value: d, z, ...withPop });
+        return proportionSampleSize({ p: target.value, target: 'margin', value: d, z, ...withPop });
       }
       return proportionSampleSize({ p: pp, target: target.kind, value: target.value, z, ...withPop });
     };
@@ -113,7 +117,9 @@ export function passFailEstimator(summary: RunningSummary, setup: AnalysisSetup)
           'zero-acceptance: n = ln α / ln(1 − L) if no counted outcome turns up; high end from the 90th percentile of p',
       };
     }
-    const likely = at(centre);
+    // a limit decision projects from the observed rate (the rate the decision is about), the others from the
+    // Agresti–Coull centre
+    const likely = at(target.kind === 'limit' ? x / n : centre);
     const a = at(band.lower);
     const b = at(band.upper);
     let low = Math.min(likely, a, b);
@@ -124,7 +130,10 @@ export function passFailEstimator(summary: RunningSummary, setup: AnalysisSetup)
       likely,
       low,
       high,
-      basis: 'z²·p̃(1−p̃)/d² with p̃ the Agresti–Coull centre; range from the 80 % Wilson limits for p',
+      basis:
+        target.kind === 'limit'
+          ? 'n at which the one-sided Wilson bound clears the limit if the rate stays as observed, z²·L(1−L)/(p − L)²; range from the 80 % Wilson limits for p'
+          : 'z²·p̃(1−p̃)/d² with p̃ the Agresti–Coull centre; range from the 80 % Wilson limits for p',
     };
   };
 
