@@ -21,6 +21,7 @@ import type { StudySetup } from '../model/records.ts';
 import type { Assessment } from '../model/types.ts';
 import {
   CAUTIONS,
+  checkedLevelWords,
   confidenceWords,
   decisionWords,
   doneWords,
@@ -200,7 +201,8 @@ export async function reportHtml(bundle: Bundle, options: ReportOptions): Promis
 
   const method = [
     `The estimate is ${esc(estimatorWords(a, setup))}.`,
-    `The interval is ${esc(methodWords(a, sep))}, reported as a ${sidedWords(a.sided)} at ${esc(levelWords(a.level, sep))}${a.level !== setup.level ? ` — wider than the chosen ${esc(levelWords(setup.level, sep))} because the data were looked at after every entry, and a rule that looks that often must check a wider interval to keep its promise` : ''}.`,
+    `The interval is ${esc(methodWords(a, sep))}, reported as a ${sidedWords(a.sided)} at ${esc(levelWords(a.level, sep))}.`,
+    esc(checkedLevelWords(a, setup, sep) ?? ''),
     `The rule's own account: ${esc(a.verdict.message)}`,
     `Whether there is enough was decided with ${esc(ruleExplained(setup.rule))}.`,
     `Measured coverage of this rule: ${options.coverage === null ? 'not yet measured' : esc(options.coverage)}.`,

@@ -67,3 +67,13 @@ export function intervalWords(a: Assessment, setup: StudySetup, sep = '.'): stri
 export function methodWords(a: Assessment, sep = '.'): string {
   return a.methodLabel.replace(/(\d+\.\d{2,}) %/g, (_, p: string) => levelWords(Number(p) / 100, sep));
 }
+
+/**
+ * The confidence the crew chose is the claim; when the stopping rule checks a wider interval (it looks after
+ * every entry, and a rule that looks that often must check wider to keep its promise), say so and why.
+ * Null when the interval shown is at the chosen level.
+ */
+export function checkedLevelWords(a: Assessment, setup: StudySetup, sep = '.'): string | null {
+  if (Math.abs(a.level - setup.level) < 1e-9) return null;
+  return `Your claim is ${levelWords(setup.level, sep)} confidence; the interval is checked at ${levelWords(a.level, sep)} because the data are looked at after every entry.`;
+}

@@ -1,7 +1,14 @@
 /** The one module of words: see README.md. */
 export { CAUTIONS } from './cautions.ts';
 export { entryWords } from './entry.ts';
-export { estimateWords, intervalWords, methodWords, type Shown, shownNumbers } from './figures.ts';
+export {
+  checkedLevelWords,
+  estimateWords,
+  intervalWords,
+  methodWords,
+  type Shown,
+  shownNumbers,
+} from './figures.ts';
 export { decimalsFor, fixed, levelWords, percent, plain, readable, withSeparator } from './numbers.ts';
 export {
   confidenceWords,

@@ -9,6 +9,7 @@ import type { StudySetup } from '../../../src/model/records.ts';
 import type { Assessment } from '../../../src/model/types.ts';
 import {
   CAUTIONS,
+  checkedLevelWords,
   confidenceWords,
   decimalsFor,
   entryWords,
@@ -136,5 +137,26 @@ describe('units, kinds, entries, more', () => {
   it('one cautions text', () => {
     expect(CAUTIONS[0]).toMatch(/^The tool gives statistical guidance only\./);
     expect(CAUTIONS).toHaveLength(4);
+  });
+});
+
+describe('checkedLevelWords: the chosen confidence is the claim, and a wider checked level says why', () => {
+  const setup: StudySetup = {
+    kind: 'measurement',
+    level: 0.95,
+    sided: 'two',
+    rule: 'standard',
+    min: 10,
+    unit: 'mg/L',
+  };
+  const at = (level: number) => ({ level }) as Assessment;
+  it('says nothing when the interval is at the chosen level', () => {
+    expect(checkedLevelWords(at(0.95), setup)).toBeNull();
+  });
+  it('names both levels, rounded as people say them, and the reason', () => {
+    expect(checkedLevelWords(at(0.9554546501165561), setup)).toBe(
+      'Your claim is 95 % confidence; the interval is checked at 95.5 % because the data are looked at after every entry.',
+    );
+    expect(checkedLevelWords(at(0.9554546501165561), setup, ',')).toContain('95,5 %');
   });
 });

@@ -6,6 +6,7 @@
  */
 import type { Assessment } from '../../core.ts';
 import {
+  checkedLevelWords,
   decisionWords,
   doneWords,
   methodWords,
@@ -40,6 +41,7 @@ export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs:
   const done = doneWords(a);
   const more = moreText(a, props.paceMs);
   const decision = decisionWords(a, study.setup, sep);
+  const checked = checkedLevelWords(a, study.setup, sep);
   const showWhy = !(a.verdict.status === 'keep going' && a.verdict.reason === 'below-minimum' && more);
   return (
     <section class={`verdict ${verdictClass(a)}`} aria-labelledby="verdict-word">
@@ -86,6 +88,7 @@ export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs:
         <p>
           {s.interval ? `Interval: ${shortMethod(a, sep)}.` : 'No interval yet (needs at least 2 entries).'}
         </p>
+        {checked && <p data-testid="checked-level">{checked}</p>}
         <p>
           Stopping rule: {ruleWords(study.setup.rule)}. {a.verdict.message}
         </p>
