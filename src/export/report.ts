@@ -19,6 +19,7 @@ import { type Bundle, eventLogHash } from '../bundle/bundle.ts';
 import { collectorShares, countedEntries, likelyDuplicates, logCounts, pointsOf } from '../bundle/events.ts';
 import type { StudySetup } from '../model/records.ts';
 import type { Assessment } from '../model/types.ts';
+import { ruleWarnings } from '../stop/rule-warnings.ts';
 import {
   CAUTIONS,
   checkedLevelWords,
@@ -155,6 +156,8 @@ export async function reportHtml(bundle: Bundle, options: ReportOptions): Promis
   const first = entries[0]?.at;
   const last = entries[entries.length - 1]?.at;
   const sep = options.decimalSeparator ?? setup.decimalSeparator ?? '.';
+  // the measured shortfalls of this rule for this setup (the coverage benchmark), as on the screens
+  const ruleLimits = ruleWarnings(setup);
   const more = moreWords(a);
   const done = doneWords(a);
 
@@ -301,6 +304,7 @@ ${
 </section>
 
 ${a.warnings.length ? `<section class="keep"><h2>Warnings</h2><ul>${a.warnings.map((w) => `<li>${esc(w)}</li>`).join('')}</ul></section>` : ''}
+${ruleLimits.length ? `<section class="keep"><h2>Known limits of this rule</h2><ul>${ruleLimits.map((w) => `<li>${esc(w)}</li>`).join('')}</ul></section>` : ''}
 
 <section class="keep">
 <h2>Cautions</h2>

@@ -108,6 +108,14 @@ describe('report HTML', () => {
     expect(parsed.text).toContain(b.checksum.value);
     expect(parsed.text).toContain('The tool gives statistical guidance only.');
   });
+  it("the rule's known limits are in the file, in the words the screens show (naive rule: the comparison-only warning)", async () => {
+    const naive = await makeBundle({ ...b.study, setup: { ...b.study.setup, rule: 'naive' } }, b.events);
+    const text = await reportHtml(naive, { coverage: null });
+    expect(text).toContain('<h2>Known limits of this rule</h2>');
+    expect(text).toContain('Use it only for comparison.');
+    // the default study's own limits (counts under the standard rule) are listed too, without the naive one
+    expect(html).not.toContain('Use it only for comparison.');
+  });
   it('coverage figure when given', async () => {
     const withCov = await reportHtml(b, { coverage: '0.951 at 95 % (benchmark grid)' });
     expect(pyParse(withCov).text).toContain(

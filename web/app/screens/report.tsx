@@ -13,6 +13,7 @@ import {
   ruleWords,
   targetWords,
 } from '../../core-light.ts';
+import { loadedCore } from '../../core-loader.ts';
 import { type StudyView, useStudy } from '../../state/use-study.ts';
 import { Chart } from '../components/chart.tsx';
 import { BackupLine, DemoLabel, StudyTabs, TopBar } from '../components/chrome.tsx';
@@ -36,6 +37,8 @@ function Report({ view }: { view: StudyView }) {
   const study = session.study;
   const a = session.assessment;
   const setup = study.setup;
+  // the benchmark's known shortfalls for this setup, as on the field screen (the core is loaded with the study)
+  const ruleLimits = loadedCore().ruleWarnings(setup);
   const t = setup.target;
   const sep = studySep(setup);
   const what =
@@ -102,6 +105,16 @@ function Report({ view }: { view: StudyView }) {
               <li key={w}>{w}</li>
             ))}
           </ul>
+        )}
+        {ruleLimits.length > 0 && (
+          <>
+            <h3>Known limits of this rule</h3>
+            <ul class="warnings" data-testid="report-rule-limits">
+              {ruleLimits.map((w) => (
+                <li key={w}>{w}</li>
+              ))}
+            </ul>
+          </>
         )}
       </section>
       <section aria-labelledby="r-chart">
