@@ -22,8 +22,24 @@ export function registerServiceWorker(): void {
     // so in the session that first installed the app an accepted update would never reload.
     if (accepted) window.location.reload();
   });
+  // said once per page: after OK it must not come back when the same install also activates
+  let announced = false;
+  const announce = () => {
+    if (announced) return;
+    announced = true;
+    offlineReady.set(true);
+  };
   wb.addEventListener('installed', (e) => {
-    if (!e.isUpdate) offlineReady.set(true);
+    if (!e.isUpdate) announce();
   });
-  void wb.register();
+  // A first install can finish before workbox-window watches it (a fast install on a busy phone): then no
+  // 'installed' event comes. A page that no service worker controlled at load, once one is active, is the
+  // same news: ready to work offline.
+  const firstInstall = navigator.serviceWorker.controller === null;
+  void wb
+    .register()
+    .then(() => navigator.serviceWorker.ready)
+    .then(() => {
+      if (firstInstall) announce();
+    });
 }
