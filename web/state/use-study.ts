@@ -122,6 +122,11 @@ export function useStudy(id: string, from: OpenFrom = 'log'): StudyView {
   const ref = useRef<StudySession | null>(null);
   /** The last seq this tab committed: a second save may commit before the first one's statistics ran. */
   const committed = useRef(0);
+  /**
+   * The saved entries' statistics still waiting for the next frame. Undo, void and correct wait for them:
+   * "undo last" read before the last save was applied would withdraw the entry before it.
+   */
+  const pending = useRef<Promise<unknown>>(Promise.resolve());
 
   // a layout effect, so that the storage reads start with the first render instead of after its paint
   useLayoutEffect(() => {
@@ -230,18 +235,22 @@ export function useStudy(id: string, from: OpenFrom = 'log'): StudyView {
           apply([record]).then(() => resolve((ref.current as StudySession).assessment), reject);
         }),
       );
+      pending.current = Promise.all([pending.current, applied.catch(() => undefined)]);
       return { record, before, applied };
     },
     undoLast: async (reason) => {
+      await pending.current;
       const last = need().lastCounted();
       if (!last) throw new Error('There is no entry to undo.');
       return apply([await voidEntry(id, last.id, reason, device.get())]);
     },
     voidOne: async (targetId, reason) => {
+      await pending.current;
       need();
       return apply([await voidEntry(id, targetId, reason, device.get())]);
     },
     correct: async (targetId, reason, entry) => {
+      await pending.current;
       need();
       return apply(await correctEntry(id, targetId, reason, entry, device.get()));
     },
