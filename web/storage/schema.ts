@@ -1,8 +1,8 @@
 /**
- * The IndexedDB schema (typed for idb). Each version's shape is frozen in its own page: SCHEMA-v1.md, and
- * SCHEMA-v2.md (`byVoids` no longer unique) and SCHEMA-v3.md (the current one: the `snapshots` store). A later version adds an
- * `if (oldVersion < N)` step in db.ts, a SCHEMA-vN.md, and keeps fixtures of the older versions for the
- * upgrade tests (e2e/fixtures/schema-v1.json).
+ * The IndexedDB schema (typed for idb). Each version's shape is frozen in its own page: SCHEMA-v1.md,
+ * SCHEMA-v2.md (`byVoids` no longer unique) and SCHEMA-v3.md (the current one: the `snapshots` store). A
+ * later version adds an `if (oldVersion < N)` step in db.ts and a page of its own beside these, and keeps
+ * fixtures of the older versions for the upgrade tests (e2e/fixtures/schema-v1.json).
  *
  * - `studies`: one record per study setup version. The setup is never edited once an observation exists
  *   (`lockedAt`); a changed setup is a new record whose `supersedes` names the old one. Only the
