@@ -13,7 +13,6 @@ export {
   type SeriesPoint,
   type StratumProgress,
   strataProgress,
-  usesDesign,
 } from './assess/index.ts';
 export {
   RUNNING_SNAPSHOT_VERSION,

@@ -20,12 +20,3 @@ export { checkTarget, effectiveSided, halfWidth } from './target.ts';
 export function assess(points: readonly Point[], setup: AnalysisSetup): Assessment {
   return new RunningAssessment(setup, points).assessment;
 }
-
-/** True when the setup or the entries call for a design-based estimate instead of the data kind's own. */
-export function usesDesign(points: readonly Point[], setup: AnalysisSetup): boolean {
-  return (
-    (setup.strata !== undefined && setup.strata.length > 0) ||
-    setup.design === 'composite' ||
-    points.some((p) => p.cluster !== undefined || p.censored === true)
-  );
-}

@@ -95,7 +95,7 @@ export function runPipeline(
   else if (guard !== null) verdict = keepGoing(guard.reason, guard.message);
   else if (target === undefined)
     verdict = keepGoing('no-target', 'No target set: the interval is shown only.');
-  else if (estimator.intervalAt === null || interval === null)
+  else if (estimator.intervalAt === null)
     verdict = keepGoing('not-supportable', 'Too few entries for an interval.');
   else {
     const ctx: RuleContext = {

@@ -15,9 +15,8 @@
  * Storage must keep numbers exactly (IndexedDB's structured clone does; JSON would turn an infinite figure
  * into null, which the check below then refuses).
  */
-import type { AnalysisSetup, Assessment, Point } from '../model/types.ts';
-import type { MoreMemory } from './more.ts';
-import { RunningAssessment, SERIES_MAX, type SeriesPoint } from './running.ts';
+import type { AnalysisSetup, Point } from '../model/types.ts';
+import { RunningAssessment, type RunningCarried, SERIES_MAX, type SeriesPoint } from './running.ts';
 
 /** Raised whenever the shape or the meaning of the snapshot changes; older snapshots are then rebuilt. */
 export const RUNNING_SNAPSHOT_VERSION = 1;
@@ -25,7 +24,8 @@ export const RUNNING_SNAPSHOT_VERSION = 1;
 /** An entry that carries more than its value: [index, censored, stratum, primary unit]. */
 export type EntryMarks = [number, boolean, string | null, string | null];
 
-export interface RunningSnapshot {
+/** What a running assessment carries (its keys, smoothing memory, assessment and chart), plus its entries. */
+export interface RunningSnapshot extends RunningCarried {
   version: number;
   /** The setup the figures were computed for, as JSON (a changed setup makes the snapshot useless). */
   setup: string;
@@ -33,13 +33,6 @@ export interface RunningSnapshot {
   values: number[];
   /** Only the entries with a mark (non-detect, stratum, primary unit), in entry order. */
   marks: EntryMarks[];
-  /** The counted entries' keys (entry ids); null for an entry added without one. */
-  keys: (string | null)[];
-  memory: MoreMemory | null;
-  current: Assessment | null;
-  stride: number;
-  sampled: SeriesPoint[];
-  latest: SeriesPoint | null;
 }
 
 export function snapshotRunning(r: RunningAssessment): RunningSnapshot {

@@ -61,9 +61,8 @@ function withNonDetectNotes(e: Estimator, state: EntryState, setup: AnalysisSetu
     notes.push(
       `SUBSTITUTION: ${k} non-detect${k === 1 ? ' was' : 's were'} replaced by half the reporting limit, as chosen for this study (use only where a regulation prescribes it; Kaplan–Meier is the default).`,
     );
-    let mean = 0;
-    for (const p of state.points) mean += p.value;
-    if (state.n >= 2) extra.substitutedMean = mean / state.n;
+    // the points already hold the substituted values: their running mean, not a pass over the log
+    if (state.n >= 2) extra.substitutedMean = state.pointMoments.mean;
   }
   return {
     ...e,

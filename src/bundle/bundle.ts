@@ -2,7 +2,9 @@
  * The study bundle: a study's setup and its complete event log in one JSON file, with a format
  * version and a SHA-256 checksum over a canonical serialisation (schema: src/bundle/SCHEMA.md).
  */
-import type { ObservationRecord, Position, StudyRecord, StudySetup } from '../model/records.ts';
+import type { ObservationRecord, Position, StudyRecord } from '../model/records.ts';
+// the setup's members are the one validator's list (src/model/setup.ts)
+import { SETUP_KEYS } from '../model/setup.ts';
 import { canonicalJson } from './canonical.ts';
 import { sha256Hex } from './digest.ts';
 
@@ -32,33 +34,10 @@ export function eventLogHash(events: readonly ObservationRecord[]): Promise<stri
 }
 
 /**
- * Every member of each record type, checked by the compiler: adding a field to StudySetup, StudyRecord or
- * ObservationRecord without listing it here is a type error (so the bundle never drops it silently).
+ * Every member of each record type, checked by the compiler: adding a field to StudyRecord or
+ * ObservationRecord without listing it here is a type error (so the bundle never drops it silently); the
+ * setup's members come from the setup validator's own checked list.
  */
-const SETUP_MEMBERS: Record<keyof StudySetup, true> = {
-  kind: true,
-  level: true,
-  sided: true,
-  method: true,
-  target: true,
-  rule: true,
-  min: true,
-  population: true,
-  plotArea: true,
-  max: true,
-  planning: true,
-  sprt: true,
-  strata: true,
-  design: true,
-  nonDetects: true,
-  unit: true,
-  plotAreaUnit: true,
-  outcomeName: true,
-  taxon: true,
-  samplingProtocol: true,
-  reportingLimit: true,
-  ...{ decimalSeparator: true, expectedRange: true, positionWarnM: true, otherOutcomeName: true },
-};
 const STUDY_MEMBERS: Record<keyof StudyRecord, true> = {
   id: true,
   name: true,
@@ -85,7 +64,6 @@ const EVENT_MEMBERS: Record<keyof ObservationRecord, true> = {
   label: true,
   corrects: true,
 };
-const SETUP_KEYS = Object.keys(SETUP_MEMBERS) as (keyof StudySetup)[];
 const STUDY_KEYS = Object.keys(STUDY_MEMBERS) as (keyof StudyRecord)[];
 const EVENT_KEYS = Object.keys(EVENT_MEMBERS) as (keyof ObservationRecord)[];
 

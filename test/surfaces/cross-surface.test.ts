@@ -23,11 +23,16 @@ import type { Assessment } from '../../src/model/types.ts';
 import { estimateWords, intervalWords, targetWords } from '../../src/words/index.ts';
 import { loadCore } from '../../web/core-loader.ts';
 import { StudySession } from '../../web/state/session.ts';
-import cluster from '../fixtures/design-cluster.json';
 import composite from '../fixtures/design-composite.json';
-import km from '../fixtures/design-kaplan-meier.json';
-import stratified from '../fixtures/design-stratified.json';
-import zarr13 from '../fixtures/stats-zarr13.json';
+import {
+  firstDetect,
+  heat,
+  kicks,
+  nonDetectEntries,
+  strata,
+  strataEntries,
+  unitEntries,
+} from '../support/published-data.ts';
 
 const STUDY_ID = '3b241101-e2bb-4255-8caf-4136c566a962';
 const id = (n: number) => `00000000-0000-4000-8000-${n.toString(16).padStart(12, '0')}`;
@@ -61,35 +66,6 @@ function studyOf(setup: StudySetup): StudyRecord {
 
 const base = { level: 0.95, sided: 'two', rule: 'standard', min: 10 } as const;
 
-// ZARR13: NIST/SEMATECH e-Handbook heat flow meter data (test/fixtures/stats-zarr13.json)
-const heat = zarr13.values as number[];
-// USEPA (2009) Unified Guidance Example 15-1, ln(manganese): detects and reporting limits (non-detects)
-// (the order of the results is not published: the non-detects are spread through the log here)
-const kmEntries: Entry[] = (km.published.detects as number[]).map((value): Entry => ({ value }));
-(km.published.limits as number[]).forEach((value, i) => {
-  kmEntries.splice(2 + 4 * i, 0, { value, censored: true });
-});
-// Scheaffer, Mendenhall & Ott, Elementary Survey Sampling, Example 5.1 (test/fixtures/design-stratified.json)
-const strataEntries: Entry[] = stratified.strata.flatMap((s) =>
-  s.values.map((value) => ({ value, stratum: s.name })),
-);
-// Scheaffer et al. Example 8.1: each primary unit's total spread evenly over its entries
-const unitEntries: Entry[] = cluster.clusters.flatMap((c, i) =>
-  Array.from({ length: c.size }, () => ({ value: c.total / c.size, cluster: `block ${i + 1}` })),
-);
-// Bortkiewicz (1898) deaths by horse kick per Prussian army corps and year, frequencies 109/65/22/3/1 for
-// 0–4 deaths (from memory); the order within the 200 corps-years is not published, so one is fixed here.
-const kicks: number[] = [];
-{
-  const left = [109, 65, 22, 3, 1];
-  for (let i = 0; kicks.length < 200; i++) {
-    const k = [0, 1, 0, 2, 0, 1, 0, 1, 3, 0, 1, 2, 0, 4, 1, 0][i % 16]!;
-    const pick = left[k]! > 0 ? k : left.findIndex((x) => x > 0);
-    left[pick]!--;
-    kicks.push(pick);
-  }
-}
-
 const cases: { name: string; setup: StudySetup; entries: Entry[]; corrected: Entry; replay: boolean }[] = [
   {
     name: 'measurement, Student t, margin (ZARR13)',
@@ -101,8 +77,8 @@ const cases: { name: string; setup: StudySetup; entries: Entry[]; corrected: Ent
   {
     name: 'measurement, non-detects (Kaplan–Meier), limit (USEPA 2009 Ex. 15-1)',
     setup: { ...base, kind: 'measurement', unit: 'ln(ug/L)', min: 8, target: { kind: 'limit', value: 4 } },
-    entries: kmEntries,
-    corrected: { value: km.published.detects[0] as number },
+    entries: [...nonDetectEntries],
+    corrected: { value: firstDetect },
     replay: false,
   },
   {
@@ -139,19 +115,19 @@ const cases: { name: string; setup: StudySetup; entries: Entry[]; corrected: Ent
       kind: 'measurement',
       unit: 'h',
       target: { kind: 'margin', value: 1 },
-      strata: stratified.strata.map((s) => ({
+      strata: strata.map((s) => ({
         name: s.name,
         weight: s.population,
       })),
     },
-    entries: strataEntries,
-    corrected: { value: 30, stratum: stratified.strata[0]!.name },
+    entries: [...strataEntries],
+    corrected: { value: 30, stratum: strata[0]!.name },
     replay: false,
   },
   {
     name: 'primary units (Scheaffer et al. Ex. 8.1)',
     setup: { ...base, kind: 'measurement', unit: 'USD', target: { kind: 'relative', value: 0.05 } },
-    entries: unitEntries,
+    entries: [...unitEntries],
     corrected: { value: unitEntries[4]!.value, cluster: unitEntries[4]!.cluster as string },
     replay: false,
   },

@@ -28,10 +28,15 @@ import type { ObservationRecord, StudyRecord, StudySetup } from '../../src/model
 import type { Assessment } from '../../src/model/types.ts';
 import { loadCore } from '../../web/core-loader.ts';
 import { StudySession } from '../../web/state/session.ts';
-import cluster from '../fixtures/design-cluster.json';
-import km from '../fixtures/design-kaplan-meier.json';
-import stratified from '../fixtures/design-stratified.json';
-import zarr13 from '../fixtures/stats-zarr13.json';
+import {
+  firstDetect,
+  heat,
+  kicks,
+  nonDetectEntries,
+  strata,
+  strataEntries,
+  unitEntries,
+} from '../support/published-data.ts';
 
 const STUDY_ID = '6f1c2e0a-4b7d-4c2e-9f3a-1d2e3f4a5b6c';
 const id = (n: number) => `00000000-0000-4000-8000-${n.toString(16).padStart(12, '0')}`;
@@ -63,23 +68,6 @@ function logOf(entries: readonly Entry[], corrected: Entry): ObservationRecord[]
 }
 
 const base = { level: 0.95, sided: 'two', rule: 'standard', min: 10 } as const;
-const heat = zarr13.values as number[]; // NIST/SEMATECH ZARR13 heat flow meter data
-// USEPA (2009) Unified Guidance Example 15-1, ln(manganese): detects and reporting limits
-const kmEntries: Entry[] = (km.published.detects as number[]).map((value): Entry => ({ value }));
-(km.published.limits as number[]).forEach((value, i) => {
-  kmEntries.splice(2 + 4 * i, 0, { value, censored: true });
-});
-// Scheaffer, Mendenhall & Ott, Example 5.1 (three strata, N = 155, 62, 93)
-const strataEntries: Entry[] = stratified.strata.flatMap((s) =>
-  s.values.map((value) => ({ value, stratum: s.name })),
-);
-// Scheaffer et al. Example 8.1: each primary unit's total spread evenly over its entries
-const unitEntries: Entry[] = cluster.clusters.flatMap((c, i) =>
-  Array.from({ length: c.size }, () => ({ value: c.total / c.size, cluster: `block ${i + 1}` })),
-);
-// Bortkiewicz (1898) horse-kick deaths: frequencies 109/65/22/3/1 of 0–4 (order within is not published)
-const kicks = [0, 1, 0, 2, 0, 1, 0, 1, 3, 0, 1, 2, 0, 4, 1, 0, 0, 1, 0, 0, 2, 0, 1, 0, 0, 0, 1, 0, 2, 0];
-
 interface Case {
   name: string;
   setup: StudySetup;
@@ -100,8 +88,8 @@ const cases: Case[] = [
   {
     name: 'measurement with non-detects (USEPA 2009 Ex. 15-1)',
     setup: { ...base, kind: 'measurement', unit: 'ln(ug/L)', min: 8, target: { kind: 'limit', value: 4 } },
-    entries: kmEntries,
-    corrected: { value: km.published.detects[0] as number },
+    entries: [...nonDetectEntries],
+    corrected: { value: firstDetect },
     replay: false,
   },
   {
@@ -113,7 +101,7 @@ const cases: Case[] = [
       plotAreaUnit: 'm2',
       target: { kind: 'precision', value: 0.2 },
     },
-    entries: kicks.map((value) => ({ value })),
+    entries: kicks.slice(0, 30).map((value) => ({ value })),
     corrected: { value: 1 },
     replay: true,
   },
@@ -131,16 +119,16 @@ const cases: Case[] = [
       kind: 'measurement',
       unit: 'h',
       target: { kind: 'margin', value: 1 },
-      strata: stratified.strata.map((s) => ({ name: s.name, weight: s.population })),
+      strata: strata.map((s) => ({ name: s.name, weight: s.population })),
     },
-    entries: strataEntries,
-    corrected: { value: 30, stratum: stratified.strata[0]!.name },
+    entries: [...strataEntries],
+    corrected: { value: 30, stratum: strata[0]!.name },
     replay: false,
   },
   {
     name: 'primary units (Scheaffer et al. Ex. 8.1)',
     setup: { ...base, kind: 'measurement', unit: 'USD', target: { kind: 'relative', value: 0.05 } },
-    entries: unitEntries,
+    entries: [...unitEntries],
     corrected: { value: unitEntries[4]!.value, cluster: unitEntries[4]!.cluster as string },
     replay: false,
   },
@@ -278,10 +266,10 @@ describe('a bundle carries what flags cannot', () => {
     kind: 'measurement',
     unit: 'h',
     target: { kind: 'margin', value: 1 },
-    strata: stratified.strata.map((s) => ({ name: s.name, weight: s.population, population: s.population })),
+    strata: strata.map((s) => ({ name: s.name, weight: s.population, population: s.population })),
   };
   const study = studyOf(setup);
-  const log = logOf(strataEntries, { value: 30, stratum: stratified.strata[0]!.name });
+  const log = logOf(strataEntries, { value: 30, stratum: strata[0]!.name });
 
   it("strata with each stratum's number of units: assess BUNDLE gives the phone figures; the recipe says it cannot", async () => {
     const b = await makeBundle(study, log);

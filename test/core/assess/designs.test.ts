@@ -2,7 +2,7 @@
 // tests carry the published sources) and against scipy where a new figure appears:
 // python3 -c "from scipy import stats; print(stats.t.ppf(0.975, 21.089612008024652))" → 2.0790759231652784
 import { describe, expect, it } from 'vitest';
-import { assess, strataProgress, usesDesign } from '../../../src/assess/index.ts';
+import { assess, strataProgress } from '../../../src/assess/index.ts';
 import type { AnalysisSetup, Point } from '../../../src/model/types.ts';
 import { studentTInterval } from '../../../src/stats/student-t-interval.ts';
 import fixture from '../../fixtures/design-stratified.json';
@@ -165,11 +165,15 @@ describe('assessDesign — non-detects', () => {
     expect(a.method).toBe('half-limit-t');
     expect(a.methodLabel).toMatch(/substitution/);
   });
-  it('usesDesign sees strata, composites, clusters and non-detects', () => {
-    expect(usesDesign([{ value: 1 }], base)).toBe(false);
-    expect(usesDesign([{ value: 1, censored: true }], base)).toBe(true);
-    expect(usesDesign([{ value: 1, cluster: 'T1' }], base)).toBe(true);
-    expect(usesDesign([{ value: 1 }], { ...base, design: 'composite' })).toBe(true);
-    expect(usesDesign([{ value: 1 }], { ...base, strata: [{ name: 'a', weight: 1 }] })).toBe(true);
+  it('a design-based estimate takes over for strata, composites, primary units and non-detects', () => {
+    const two = (p: Partial<Point>) => [{ value: 1 }, { value: 2, ...p }];
+    const design = (points: Point[], setup: AnalysisSetup) => assess(points, setup).details.design;
+    expect(design(two({}), base)).toBeUndefined();
+    expect(design(two({ censored: true }), base)).toBe('kaplan-meier-t');
+    expect(design(two({ cluster: 'T1' }), base)).toBe('cluster-ratio-t');
+    expect(design(two({}), { ...base, design: 'composite' })).toBe('composite-t');
+    expect(design(two({ stratum: 'a' }), { ...base, strata: [{ name: 'a', weight: 1 }] })).toBe(
+      'stratified-t',
+    );
   });
 });

@@ -13,38 +13,16 @@ import { RunningAssessment, SERIES_MAX } from '../../../src/assess/running.ts';
 import { RUNNING_SNAPSHOT_VERSION, restoreRunning, snapshotRunning } from '../../../src/assess/snapshot.ts';
 import type { StudySetup } from '../../../src/model/records.ts';
 import type { Point } from '../../../src/model/types.ts';
-import cluster from '../../fixtures/design-cluster.json';
-import km from '../../fixtures/design-kaplan-meier.json';
-import stratified from '../../fixtures/design-stratified.json';
-import zarr13 from '../../fixtures/stats-zarr13.json';
+import {
+  heat,
+  kicks,
+  nonDetectEntries,
+  strata,
+  strataEntries,
+  unitEntries,
+} from '../../support/published-data.ts';
 
 const base = { level: 0.95, sided: 'two', rule: 'standard', min: 10 } as const;
-// ZARR13: NIST/SEMATECH e-Handbook heat flow meter data (test/fixtures/stats-zarr13.json), 195 values
-const heat = zarr13.values as number[];
-// Bortkiewicz (1898) deaths by horse kick, frequencies 109/65/22/3/1 for 0–4 (order not published: fixed)
-const kicks: number[] = [];
-{
-  const left = [109, 65, 22, 3, 1];
-  for (let i = 0; kicks.length < 200; i++) {
-    const k = [0, 1, 0, 2, 0, 1, 0, 1, 3, 0, 1, 2, 0, 4, 1, 0][i % 16] as number;
-    const pick = (left[k] as number) > 0 ? k : left.findIndex((x) => x > 0);
-    (left[pick] as number)--;
-    kicks.push(pick);
-  }
-}
-// USEPA (2009) Unified Guidance Example 15-1: detects and reporting limits (non-detects spread through)
-const kmPoints: Point[] = (km.published.detects as number[]).map((value) => ({ value }));
-(km.published.limits as number[]).forEach((value, i) => {
-  kmPoints.splice(2 + 4 * i, 0, { value, censored: true });
-});
-// Scheaffer, Mendenhall & Ott, Elementary Survey Sampling, Examples 5.1 (strata) and 8.1 (primary units)
-const strataPoints: Point[] = stratified.strata.flatMap((s) =>
-  s.values.map((value) => ({ value, stratum: s.name })),
-);
-const unitPoints: Point[] = cluster.clusters.flatMap((c, i) =>
-  Array.from({ length: c.size }, () => ({ value: c.total / c.size, cluster: `block ${i + 1}` })),
-);
-
 const cases: { name: string; setup: StudySetup; points: Point[] }[] = [
   {
     name: 'measurement, standard rule (ZARR13)',
@@ -86,7 +64,7 @@ const cases: { name: string; setup: StudySetup; points: Point[] }[] = [
   {
     name: 'non-detects, Kaplan–Meier (USEPA 2009 Ex. 15-1)',
     setup: { ...base, kind: 'measurement', unit: 'ln(ug/L)', min: 8, target: { kind: 'limit', value: 4 } },
-    points: kmPoints,
+    points: [...nonDetectEntries],
   },
   {
     name: 'strata (Scheaffer et al. Ex. 5.1)',
@@ -95,14 +73,14 @@ const cases: { name: string; setup: StudySetup; points: Point[] }[] = [
       kind: 'measurement',
       unit: 'h',
       target: { kind: 'margin', value: 1 },
-      strata: stratified.strata.map((s) => ({ name: s.name, weight: s.population })),
+      strata: strata.map((s) => ({ name: s.name, weight: s.population })),
     },
-    points: strataPoints,
+    points: [...strataEntries],
   },
   {
     name: 'primary units (Scheaffer et al. Ex. 8.1)',
     setup: { ...base, kind: 'measurement', unit: 'USD', target: { kind: 'relative', value: 0.05 } },
-    points: unitPoints,
+    points: [...unitEntries],
   },
 ];
 

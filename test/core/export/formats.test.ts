@@ -118,7 +118,7 @@ describe('CSV (RFC 4180) read back by Python csv', () => {
     expect(columnRows.map((r) => r[0])).toEqual(header);
     expect(dict.slice(1 + header!.length).every((r) => r[0]!.startsWith('study.'))).toBe(true);
     for (const r of dict.slice(1)) expect(r[3]!.length).toBeGreaterThan(10);
-    // one entry carries a primary unit (T2), so the estimate uses primary units (src/design usesDesign)
+    // one entry carries a primary unit (T2), so the estimate uses primary units (the pipeline's estimator choice, src/assess/subject.ts)
     expect(dict.find((r) => r[0] === 'study.design')![4]).toBe('primary units');
   });
   it('the dictionary states strata weights, costs, units, the design and the non-detect method (RFC 4180 kept)', async () => {
