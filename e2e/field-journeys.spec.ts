@@ -51,6 +51,9 @@ async function correctInLog(
   await expect(page.getByTestId('log-void').filter({ hasText: `void of #${seq}: ${reason}` })).toHaveCount(1);
   // the new entry keeps its origin
   await expect(page.getByTestId('log-corrects').filter({ hasText: `corrects #${seq}` })).toHaveCount(1);
+  await expect(page.getByTestId('log-corrected-by')).toHaveCount(
+    await page.getByTestId('log-corrects').count(),
+  );
 }
 
 async function offlineReload(page: Page) {

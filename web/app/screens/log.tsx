@@ -32,6 +32,10 @@ function Log({ view }: { view: StudyView }) {
   const [edit, setEdit] = useState<{ mode: 'correct' | 'void'; target: ObservationRecord } | null>(null);
   const records = session.records;
   const seqOf = new Map(records.map((r) => [r.id, r.seq]));
+  // a withdrawn entry names the entry that corrects it (the link runs both ways in the log)
+  const correctedBy = new Map(
+    records.filter((r) => r.corrects !== undefined).map((r) => [r.corrects, r.seq]),
+  );
   return (
     <div class="screen log-screen">
       <TopBar title={study.name} back={{ href: href.studies(), label: 'Studies' }} />
@@ -62,6 +66,12 @@ function Log({ view }: { view: StudyView }) {
               <span class="what">
                 {voidRec ? <del>{entryWords(r, study.setup, sep)}</del> : entryWords(r, study.setup, sep)}
                 {voidRec && <span class="reason"> voided: {voidRec.reason}</span>}
+                {correctedBy.has(r.id) && (
+                  <span class="corrects" data-testid="log-corrected-by">
+                    {' '}
+                    corrected by #{correctedBy.get(r.id)}
+                  </span>
+                )}
                 {r.corrects !== undefined && (
                   <span class="corrects" data-testid="log-corrects">
                     {' '}
