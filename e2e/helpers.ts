@@ -4,12 +4,14 @@ import { spawnSync } from 'node:child_process';
 import { mkdirSync } from 'node:fs';
 import { expect, type Page } from '@playwright/test';
 
-/** Waits until the service worker controls the page (reloads once if the first visit is not controlled). */
+/** Waits until the service worker controls the page (it claims the first visit; nothing reloads). */
 export async function waitForServiceWorker(page: Page): Promise<void> {
   await page.evaluate(async () => {
     await navigator.serviceWorker.ready;
   });
-  if (!(await page.evaluate(() => navigator.serviceWorker.controller !== null))) await page.reload();
+  // The worker claims the page (clientsClaim) a moment after it is active. No reload while waiting: a
+  // reloaded page is controlled from its start, and the one-time "ready to work offline" note it would
+  // have shown never comes (the cause of a flaky wait for that note).
   await page.waitForFunction(() => navigator.serviceWorker.controller !== null);
 }
 

@@ -47,8 +47,6 @@ function lineAt(starts: readonly number[], at: number): number {
   return lo + 1;
 }
 
-const breaksIn = (cell: string) => cell.match(BREAK)?.length ?? 0;
-
 const QUOTE_WORDS: Record<string, string> = {
   MissingQuotes: 'a quoted field is not closed (a " opens it and no " ends it)',
   InvalidQuotes: 'a quoted field goes on after its closing quote (write a " inside quotes as "")',
@@ -71,6 +69,11 @@ export function readCsv(
   const starts = lineStarts(text);
   const records: CsvRecord[] = [];
   let error: string | null = null;
+  // where the next record starts: the previous record's cursor (which includes its line break), moved
+  // past the comment lines papaparse skips without a step. Counting from the start, not back from the
+  // end, keeps the number right when a cell holds line breaks other than the file's own (a lone CR in
+  // an LF file), which are still lines to an editor.
+  let next = 0;
   Papa.parse(text, {
     delimiter: separator,
     quoteChar: '"',
@@ -82,12 +85,15 @@ export function readCsv(
     step: (r) => {
       if (error !== null) return;
       const problem = r.errors.find((e) => e.type === 'Quotes') ?? r.errors[0];
-      // where the record ends: its cursor, less the line break that closes it
-      let end = r.meta.cursor;
-      const tail = text.slice(Math.max(0, end - 2), end);
-      end -= tail.endsWith('\r\n') ? 2 : /[\r\n]$/.test(tail) ? 1 : 0;
-      const endLine = lineAt(starts, Math.max(0, end - 1));
-      const line = endLine - r.data.reduce((n, c) => n + breaksIn(c), 0);
+      let start = next;
+      next = r.meta.cursor;
+      const linebreak = r.meta.linebreak;
+      while (comments && text.startsWith('#', start)) {
+        const end = text.indexOf(linebreak, start);
+        if (end < 0) break;
+        start = end + linebreak.length;
+      }
+      const line = lineAt(starts, start);
       if (problem !== undefined) {
         const at = problem.index !== undefined ? lineAt(starts, problem.index) : line;
         error = `line ${at}: ${QUOTE_WORDS[problem.code] ?? problem.message}`;

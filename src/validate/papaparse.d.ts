@@ -13,7 +13,7 @@ declare module 'papaparse' {
     data: string[];
     errors: ParseError[];
     /** Offset just past this record (its line break included). */
-    meta: { cursor: number };
+    meta: { cursor: number; linebreak: string };
   }
   interface Config {
     delimiter: string;

@@ -77,6 +77,20 @@ describe('readCsv reads back what csvText writes', () => {
     );
   });
 
+  it('a record is numbered by the editor line it starts on, even after a stray break or a comment', () => {
+    // found by the values fuzzing below: the file's break is CR, the cell holds LFs; counting back
+    // from the record's end named line 0. Editors count every CR, LF and CRLF as a break.
+    expect(readCsv('\rE\n\n')).toEqual({ ok: true, records: [{ line: 2, cells: ['E\n\n'] }] });
+    expect(readCsv('# a "note\n1\n\n# b\n2,3\r\n4')).toEqual({
+      ok: true,
+      records: [
+        { line: 2, cells: ['1'] },
+        { line: 5, cells: ['2', '3\r'] },
+        { line: 6, cells: ['4'] },
+      ],
+    });
+  });
+
   it('a quoted separator, quote and line break (the export note) stay inside one field', () => {
     const text = 'value,note\r\n4.2,"wet, ""soft""\r\nground"\r\n5,\r\n';
     expect(readCsv(text)).toEqual({
