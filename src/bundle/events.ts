@@ -105,8 +105,8 @@ export function collectorShares(events: readonly ObservationRecord[]): Collector
 }
 
 /**
- * The pooled log's order (merge.ts sequences by it; likely duplicates list their ids by it): by time (`at`
- * as an instant, to the millisecond), then by `device` (code-unit order), then by `id`.
+ * The order in which likely duplicates list their ids (a reader's order, not the pooled log's, which is
+ * pooled-order.ts): by time (`at` as an instant, to the millisecond), then `device` (code-unit order), then `id`.
  */
 export function compareEvents(a: ObservationRecord, b: ObservationRecord): number {
   const ta = Date.parse(a.at);

@@ -6,19 +6,20 @@
  * only what a merged *file* needs:
  * - If the second bundle adds nothing, the first is returned unchanged: merging the same bundle twice
  *   changes nothing.
- * - Otherwise all events are re-sequenced deterministically by compareEvents (time as an instant to the
- *   millisecond, then device, then id); seq becomes 1, 2, 3… in that order, so the result does not depend
- *   on which bundle came first. A void whose time sorts before the entry it withdraws still withdraws it
- *   (voids act by id). The phone instead appends after its last seq (its store is append-only); the set of
- *   events and every order-free figure are the same.
+ * - Otherwise all events are re-sequenced in the pooled order (pooled-order.ts: each phone's events in its
+ *   own order, phones interleaved by rank, never by clock — the order the crew view reads too); seq becomes
+ *   1, 2, 3… in that order, so the result does not depend on which bundle came first. A void that sorts
+ *   before the entry it withdraws still withdraws it (voids act by id). The phone's import instead appends
+ *   after its last seq (its store is append-only); the set of events and every order-free figure are the
+ *   same.
  * - The study records may differ outside the setup (name, notes, createdAt — e.g. bundles built on two
  *   desks): the one created first is kept (ties: the smaller canonical JSON), and the differing members
  *   are listed in the report.
  */
 import { type Bundle, makeBundle } from './bundle.ts';
 import { canonicalJson } from './canonical.ts';
-import { compareEvents } from './events.ts';
 import { type PoolReport, poolBundle } from './pool.ts';
+import { pooledOrder } from './pooled-order.ts';
 
 export type MergeReport = PoolReport;
 
@@ -29,7 +30,7 @@ export async function mergeBundles(base: Bundle, incoming: Bundle): Promise<Merg
   const plan = poolBundle({ study: base.study, events: base.events }, incoming);
   if (!plan.ok) return plan;
   if (plan.add.length === 0) return { ok: true, bundle: base, report: plan.report };
-  const events = [...base.events, ...plan.add].sort(compareEvents).map((e, i) => ({ ...e, seq: i + 1 }));
+  const events = pooledOrder([...base.events, ...plan.add]).map((e, i) => ({ ...e, seq: i + 1 }));
   const ta = Date.parse(base.study.createdAt);
   const tb = Date.parse(incoming.study.createdAt);
   const keepIncoming = tb < ta || (tb === ta && canonicalJson(incoming.study) < canonicalJson(base.study));

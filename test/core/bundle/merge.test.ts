@@ -26,25 +26,41 @@ async function merged(x = A, y = B) {
 }
 
 describe('mergeBundles', () => {
-  it('union by id, re-sequenced by time, device, id; result validates', async () => {
+  it('union by id, re-sequenced in the pooled order (each phone its own order, interleaved); result validates', async () => {
     const r = await merged();
     expect(r.report.added).toBe(3);
     expect(r.report.alreadyPresent).toBe(0);
     const ev = r.bundle.events;
     expect(ev.map((e) => e.seq)).toEqual([1, 2, 3, 4, 5, 6, 7, 8]);
-    // A at :00 each minute 0..3, B at :20 minutes 0..2, A's void at 09:01:30.
+    // A's log: Q1 Q2 Q3 Q4 void (seq 1–5); B's: Q3 Q11 Q12 (seq 1–3). By rank, A before B within a rank.
     expect(ev.map((e) => `${e.device}:${e.label ?? 'void'}`)).toEqual([
       'phone-A:Q1',
       'phone-B:Q3',
       'phone-A:Q2',
       'phone-B:Q11',
-      'phone-A:void',
       'phone-A:Q3',
       'phone-B:Q12',
       'phone-A:Q4',
+      'phone-A:void',
     ]);
     const check = await parseBundle(serializeBundle(r.bundle));
     expect(check.ok).toBe(true);
+  });
+  it('never by clock: a phone whose clock is a year behind keeps its place; pooling the pooled log again keeps the order', async () => {
+    const late = await makeBundle(
+      st,
+      b.map((e) => ({ ...e, at: e.at.replace(/^(\d{4})/, (y) => String(Number(y) - 1)) })),
+    );
+    const order = (events: readonly { device: string; label?: string }[]) =>
+      events.map((e) => `${e.device}:${e.label ?? 'void'}`);
+    const once = await merged();
+    expect(order((await merged(A, late)).bundle.events)).toEqual(order(once.bundle.events));
+    expect(order((await merged(late, A)).bundle.events)).toEqual(order(once.bundle.events));
+    // a third phone pooled into the already-merged log: A and B keep their interleaving
+    const c = await makeBundle(st, entries(st, [7], 'phone-C', 9, 0, () => ({ label: 'Q20' })));
+    const again = order((await merged(once.bundle, c)).bundle.events);
+    expect(again.filter((x) => !x.startsWith('phone-C'))).toEqual(order(once.bundle.events));
+    expect(again.indexOf('phone-C:Q20')).toBe(2);
   });
   it('counted values are the union of both phones (voided entry left out)', async () => {
     const values = pointsOf((await merged()).bundle.events).map((p) => p.value);
