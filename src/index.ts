@@ -59,3 +59,4 @@ export {
   sprtOperatingCharacteristic,
   strictCost,
 } from './stop/index.ts';
+export * from './sync/index.ts';

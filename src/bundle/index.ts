@@ -30,4 +30,13 @@ export {
 export { derivedUuid } from './ids.ts';
 export { type MergeReport, type MergeResult, mergeBundles } from './merge.ts';
 export { type HeldLog, type PoolPlan, type PoolReport, poolBundle } from './pool.ts';
-export { type BundleResult, isIsoTimeWithOffset, isUuid, parseBundle, validateBundle } from './validate.ts';
+export { pooledOrder } from './pooled-order.ts';
+export {
+  type BundleResult,
+  eventProblems,
+  isIsoTimeWithOffset,
+  isUuid,
+  parseBundle,
+  studyProblems,
+  validateBundle,
+} from './validate.ts';

@@ -121,8 +121,12 @@ function checkStudy(p: Problems, study: unknown): void {
   checkSetup(p, study.setup);
 }
 
-function checkEvent(p: Problems, e: unknown, i: number, study: Obj): void {
-  const w = `events[${i}]`;
+/**
+ * One event's rules. `i` is its index in the bundle, whose `seq` must be i + 1; a batch event (`i` null,
+ * see eventProblems) needs only a whole-number `seq` ≥ 1, its place in its own phone's log.
+ */
+function checkEvent(p: Problems, e: unknown, i: number | null, study: Obj, where?: string): void {
+  const w = where ?? `events[${i}]`;
   if (!isObj(e)) {
     p.add(w, `must be an object, got ${show(e)}`);
     return;
@@ -132,7 +136,9 @@ function checkEvent(p: Problems, e: unknown, i: number, study: Obj): void {
   if (e.studyId === undefined) p.add(`${w}.studyId`, 'missing');
   else if (e.studyId !== study.id)
     p.add(`${w}.studyId`, `${show(e.studyId)} is not this bundle's study (${show(study.id)})`);
-  p.number(`${w}.seq`, e.seq, true, (n) => n === i + 1, `${i + 1} (events are numbered 1, 2, 3… in order)`);
+  if (i === null) p.number(`${w}.seq`, e.seq, true, positiveInt, 'a whole number ≥ 1');
+  else
+    p.number(`${w}.seq`, e.seq, true, (n) => n === i + 1, `${i + 1} (events are numbered 1, 2, 3… in order)`);
   p.time(`${w}.at`, e.at);
   p.string(`${w}.device`, e.device, true, true);
   for (const k of ['stratum', 'cluster', 'note', 'label'] as const) p.string(`${w}.${k}`, e[k], false);
@@ -215,6 +221,26 @@ function checkLinks(p: Problems, events: Obj[]): void {
         `events[${target}] is not voided; a correction voids the entry it replaces`,
       );
   });
+}
+
+/** The problems of a study record received on its own (a study shared with the crew server). */
+export function studyProblems(study: unknown): string[] {
+  const p = new Problems();
+  checkStudy(p, study);
+  return p.list;
+}
+
+/**
+ * The problems of one event received on its own (the crew server takes a phone's events in batches): the
+ * same rules as an event of a bundle — fields, values by the study's data kind, void and correction shape —
+ * except that `seq` is the event's place in its own phone's log (a whole number ≥ 1), and links to other
+ * events (what a void or a correction names) are the caller's to check against what it holds.
+ * `where` names the event in the messages, e.g. `events[3]`.
+ */
+export function eventProblems(e: unknown, where: string, study: StudyRecord): string[] {
+  const p = new Problems();
+  checkEvent(p, e, null, study as unknown as Obj, where);
+  return p.list;
 }
 
 /**
