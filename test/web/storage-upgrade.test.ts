@@ -95,7 +95,7 @@ describe('schema version 1 → 2', () => {
   it('opens a version-1 database with every record, byVoids no longer unique, byStudySeq still unique', async () => {
     await writeV1();
     const db = await getDb();
-    expect(DB_VERSION).toBe(3);
+    expect(DB_VERSION).toBe(4);
     expect(db.version).toBe(DB_VERSION);
     const tx = db.transaction('observations');
     expect(tx.store.index('byVoids').unique).toBe(false);

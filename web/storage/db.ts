@@ -1,6 +1,6 @@
 /**
  * Opening the database: cumulative `if (oldVersion < N)` upgrade steps (SCHEMA-v1.md, SCHEMA-v2.md,
- * SCHEMA-v3.md), and
+ * SCHEMA-v3.md, SCHEMA-v4.md), and
  * the two connection hazards
  * a field phone meets — another tab upgrading the schema (`blocking`: we close and ask for a reload) and
  * the browser dropping the connection (`terminated`: the next call reopens).
@@ -60,6 +60,12 @@ export function upgradeSteps(
     // The field screen opens from a running snapshot instead of reassessing the whole log (snapshots.ts).
     // Nothing existing is touched; a study without a snapshot is rebuilt from its log, as before.
     db.createObjectStore('snapshots', { keyPath: 'studyId' });
+  }
+  if (oldVersion < 4) {
+    // Syncing with a crew server (web/sync): how each shared study is linked, and the other phones'
+    // events apart from this phone's own log. Nothing existing is touched.
+    db.createObjectStore('crewLinks', { keyPath: 'studyId' });
+    db.createObjectStore('crewEvents', { keyPath: 'id' }).createIndex('byStudy', 'studyId');
   }
 }
 

@@ -19,6 +19,7 @@
  */
 import type { ObservationRecord, StudyRecord } from '../core.ts';
 import { inTx, withWrite } from './db.ts';
+import { logWritten } from './log-events.ts';
 import type { StoredStudy } from './schema.ts';
 import { isoWithOffset } from './time.ts';
 
@@ -45,11 +46,11 @@ function studyRange(studyId: string): IDBKeyRange {
  * Writes what `decide` says the file `study` adds, in one transaction or not at all. Resolves after the
  * transaction committed (or was abandoned for a refusal, with nothing written).
  */
-export function writeImport<P extends ImportDecision>(
+export async function writeImport<P extends ImportDecision>(
   study: StudyRecord,
   decide: (held: HeldOnPhone) => P,
 ): Promise<ImportWritten<P & { ok: true }>> {
-  return withWrite(async (db) => {
+  const written = await withWrite(async (db) => {
     const tx = db.transaction(['studies', 'observations'], 'readwrite', { durability: 'strict' });
     const studies = tx.objectStore('studies');
     const obs = tx.objectStore('observations');
@@ -91,4 +92,6 @@ export function writeImport<P extends ImportDecision>(
       throw err;
     }
   });
+  if (written.ok && written.plan.add.length > 0) logWritten(study.id);
+  return written;
 }

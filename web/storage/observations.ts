@@ -5,6 +5,7 @@
  */
 import type { ObservationRecord, Position } from '../core.ts';
 import { type DB, getDb, inTx, StorageError, withWrite } from './db.ts';
+import { logWritten } from './log-events.ts';
 import { isoWithOffset } from './time.ts';
 
 export interface NewEntry {
@@ -105,7 +106,15 @@ export function addEntry(
       await added;
       return rec;
     });
-  });
+  }).then(told(studyId));
+}
+
+/** Tells the log's listeners (log-events.ts) once the write committed, and passes its result on. */
+function told<T>(studyId: string): (out: T) => T {
+  return (out) => {
+    logWritten(studyId);
+    return out;
+  };
 }
 
 async function checkVoidable(tx: WriteTx, studyId: string, targetId: string): Promise<void> {
@@ -147,7 +156,7 @@ export function voidEntry(
       await tx.objectStore('observations').add(rec);
       return rec;
     });
-  });
+  }).then(told(studyId));
 }
 
 /** Correct = void the old entry (with the reason) + append the new value, in one atomic transaction. */
@@ -187,7 +196,7 @@ export function correctEntry(
       await store.add(e);
       return [v, e];
     });
-  });
+  }).then(told(studyId));
 }
 
 /** The study's whole log (entries and voids) in seq order. */
@@ -228,5 +237,5 @@ export function appendDemoEntries(
         await store.add({ id: crypto.randomUUID(), studyId, seq: seq++, at, device, value });
       }
     });
-  });
+  }).then(told(studyId));
 }
