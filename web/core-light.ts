@@ -11,4 +11,5 @@ export {
   setupProblems,
   TARGET_KINDS,
 } from '../src/model/setup.ts';
+export { formatCrewCode, normalizeCrewCode } from '../src/sync/crew-code.ts';
 export * from '../src/words/index.ts';

@@ -13,6 +13,8 @@ import { registerServiceWorker } from './pwa/register.ts';
 import { applyTheme, dbBlocked, deviceFrom, persistState } from './state/app-state.ts';
 import { getDb, onConnectionEvent } from './storage/db.ts';
 import { deviceId, ensurePersistence } from './storage/meta.ts';
+import { startSync } from './sync/index.ts';
+import './sync/register.ts';
 import './styles/app.css';
 
 function init(): void {
@@ -29,6 +31,8 @@ function init(): void {
   opened.then(
     () => {
       registerServiceWorker();
+      // crew server sync (web/sync): linked studies sync now, after saves and when the phone is back online
+      startSync();
       void ensurePersistence()
         .catch(() => ({ answer: 'refused' as const, firstRun: false }))
         .then((p) => persistState.set(p));

@@ -25,6 +25,7 @@ import { type StudyView, useStudy } from '../../state/use-study.ts';
 import type { NewEntry } from '../../storage/observations.ts';
 import { Chart } from '../components/chart.tsx';
 import { BackupLine, DemoLabel, StudyTabs, TopBar } from '../components/chrome.tsx';
+import { CrewChip } from '../components/crew-chip.tsx';
 import { CountPad, MeasurementPad, PassFailPad } from '../components/pads.tsx';
 import { VerdictPanel } from '../components/verdict.tsx';
 import { VoidDialog } from '../components/void-dialog.tsx';
@@ -135,6 +136,7 @@ function Field({ view }: { view: StudyView }) {
             Chart
           </button>
         </div>
+        <CrewChip studyId={study.id} />
         <div class="chart-panel" id="field-chart" data-testid="chart-panel">
           <div class="chart-panel-head">
             <h2>Running interval</h2>

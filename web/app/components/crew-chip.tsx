@@ -1,0 +1,42 @@
+/**
+ * The field screen's crew button: the study's sync state at a glance ("Crew · 3 waiting · last sync
+ * 14:05"); one tap opens the crew panel (share, crew code, the crew's pooled verdict). While it is on
+ * screen the study syncs now and every minute (web/sync/index.ts). The panel's code (the QR encoder, the
+ * requests) is loaded on the first tap, so the app shell stays small.
+ */
+import type { ComponentType } from 'preact';
+import { useEffect, useState } from 'preact/hooks';
+import { useStore } from '../../state/store.ts';
+import { watchStudy } from '../../sync/index.ts';
+import { clockTime, statusWord, syncStatus } from '../../sync/status.ts';
+
+type PanelProps = { studyId: string; onClose(): void };
+
+export function CrewChip({ studyId }: { studyId: string }) {
+  const s = useStore(syncStatus)[studyId];
+  const [Panel, setPanel] = useState<ComponentType<PanelProps> | null>(null);
+  const [open, setOpen] = useState(false);
+  useEffect(() => watchStudy(studyId), [studyId]);
+  const last =
+    s?.lastSyncAt !== undefined && s.stopped === undefined ? ` · last sync ${clockTime(s.lastSyncAt)}` : '';
+  return (
+    <div class="crew-row">
+      <button
+        type="button"
+        class={`chip crew-chip ${s?.stopped !== undefined ? 'coarse' : ''}`}
+        aria-haspopup="dialog"
+        data-testid="crew-chip"
+        onClick={async () => {
+          if (!Panel) {
+            const m = await import('./crew-panel.tsx');
+            setPanel(() => m.CrewPanel);
+          }
+          setOpen(true);
+        }}
+      >
+        {s ? `Crew · ${statusWord(s)}${last}` : 'Crew'}
+      </button>
+      {open && Panel && <Panel studyId={studyId} onClose={() => setOpen(false)} />}
+    </div>
+  );
+}
