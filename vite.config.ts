@@ -7,6 +7,7 @@ import { VitePWA } from 'vite-plugin-pwa';
 const projectRoot = import.meta.dirname;
 
 // `vite build --mode cli` bundles the Node command line (and the coverage benchmark) from the pure core.
+// `vite build --mode server` bundles the crew server (dist-server/).
 // Any other mode builds the phone app from web/ (index.html lives there).
 export default defineConfig(({ mode }): UserConfig => {
   if (mode === 'cli') {
@@ -26,6 +27,29 @@ export default defineConfig(({ mode }): UserConfig => {
             'sure-enough': resolve(projectRoot, 'src/cli/main.ts'),
             'coverage-bench': resolve(projectRoot, 'test/bench/coverage-bench.ts'),
             'replay-bench': resolve(projectRoot, 'test/bench/replay-bench.ts'),
+          },
+          output: { entryFileNames: '[name].mjs', format: 'es' },
+        },
+      },
+    };
+  }
+  if (mode === 'server') {
+    // the crew server (src/server) and its load benchmark; hono, pg and PGlite stay external (PGlite
+    // loads its WebAssembly from its own package folder)
+    return {
+      root: projectRoot,
+      publicDir: false,
+      logLevel: 'warn',
+      ssr: { noExternal: ['jstat'] },
+      build: {
+        ssr: true,
+        outDir: resolve(projectRoot, 'dist-server'),
+        emptyOutDir: true,
+        target: 'node20',
+        rollupOptions: {
+          input: {
+            server: resolve(projectRoot, 'src/server/main.ts'),
+            'server-load': resolve(projectRoot, 'test/bench/server-load.ts'),
           },
           output: { entryFileNames: '[name].mjs', format: 'es' },
         },
