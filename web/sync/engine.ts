@@ -199,12 +199,8 @@ async function pushAndPull(link: CrewLink): Promise<Outcome> {
 }
 
 function unreadable(why: string): Outcome {
-  return {
-    kind: 'refused',
-    status: 200,
-    error: `the crew server sent what this phone cannot read (${why})`,
-    problems: [],
-  };
+  // status 200: the request went through, but the answer cannot be used (refusal() words it)
+  return { kind: 'refused', status: 200, error: why, problems: [] };
 }
 
 /** The message shown when the server refused: what happened, and that the entries are safe. */
@@ -212,6 +208,8 @@ export function refusal(r: { status: number; error: string; problems: string[] }
   const kept = 'Your entries stay on this phone; export a study bundle to hand them over.';
   const detail = [r.error, ...r.problems.slice(0, 3)].join('; ');
   switch (r.status) {
+    case 200:
+      return `Sync stopped: the crew server sent data this phone cannot read (${detail}). Nothing is kept from it. ${kept}`;
     case 401:
       return `Sync stopped: the crew server no longer accepts this phone for this study (its access was removed). ${kept}`;
     case 403:
