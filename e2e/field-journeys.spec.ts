@@ -75,8 +75,10 @@ test.describe('measurement journey', () => {
   test('lead in topsoil: entries, a typo corrected, a double entry undone, enough, offline', async ({
     page,
   }) => {
-    test.setTimeout(90_000);
-    // invented concentrations (mg/kg); margin ± 8 mg/kg at 95 %
+    test.setTimeout(150_000);
+    // invented concentrations (mg/kg); margin ± 8 mg/kg at 95 %; the default hot-spot share (10 % of the
+    // site must not go unseen) is kept, so no verdict comes before 29 entries: ⌈ln 0.05 / ln 0.9⌉ = 29
+    // (1 − 0.9²⁹ = 0.953 ≥ 0.95 > 1 − 0.9²⁸ = 0.948, worked by hand)
     const flags = ['--kind', 'measurement', '--target', 'margin:8'];
     await start(page);
     await page.goto('/#/new');
@@ -123,18 +125,31 @@ test.describe('measurement journey', () => {
     await screenshot(page, 'field-measurement-keep-going');
 
     const before = await signals(page);
-    for (const v of [115, 124, 119]) {
+    const more = [115, 124, 119, 122, 110, 129, 117, 126, 108, 135, 120, 114, 131, 116, 123];
+    for (const v of more) {
       await tick(page);
       await keyIn(page, String(v));
       counted.push(v);
       await expectMatchesCore(page, coreAssess(counted, flags), GAP);
     }
+    // 28 counted: the interval is narrow enough, but no verdict before the 29th entry
+    expect(counted).toHaveLength(28);
+    await expect(page.getByTestId('verdict')).toHaveText('keep going');
+    await expect(page.getByTestId('more')).toHaveText('at least 1 more before a verdict');
+    await tick(page);
+    await keyIn(page, '119');
+    counted.push(119);
+    await expectMatchesCore(page, coreAssess(counted, flags), GAP);
     await expect(page.getByTestId('verdict')).toHaveText('enough');
+    // 1 − 0.05^(1/29) = 0.098: about 10 % of the site could still be unseen
+    await expect(page.getByTestId('done')).toContainText(
+      'An area of up to about 10 % of the site could still be unseen: 29 random entries',
+    );
     expect(await signals(page)).toBeGreaterThan(before);
     await screenshot(page, 'field-measurement-enough');
 
     await openTab(page, 'Log');
-    await expect(page.getByTestId('log-entry')).toHaveCount(18);
+    await expect(page.getByTestId('log-entry')).toHaveCount(31);
     await expect(page.getByTestId('log-void')).toHaveCount(2);
     await expect(page.locator('.log-item.voided del')).toHaveText(['138 mg/kg', '1090 mg/kg']);
     const row = (seq: number) =>
@@ -146,20 +161,27 @@ test.describe('measurement journey', () => {
     await screenshot(page, 'log-measurement');
     await openTab(page, 'Report');
     await expect(page.getByTestId('report-verdict')).toHaveText('enough');
+    await expect(page.locator('.method-statement')).toContainText(
+      'before 29 entries (an area of 10 % of the site',
+    );
     await screenshot(page, 'report-measurement');
 
     await openTab(page, 'Field');
     await offlineReload(page);
     await expectMatchesCore(page, coreAssess(counted, flags), GAP);
     await openTab(page, 'Log');
-    await expect(page.getByTestId('log-entry')).toHaveCount(18);
+    await expect(page.getByTestId('log-entry')).toHaveCount(31);
   });
 });
 
 test('count journey: snails per 0.25 m² quadrat, zero plots, undo, correction, offline', async ({ page }) => {
   test.setTimeout(90_000);
-  // invented counts; ± 30 % of the mean at 90 %
-  const flags = ['--kind', 'count', '--target', 'relative:0.3', '--level', '0.9', '--plot-area', '0.25'];
+  // invented counts; ± 30 % of the mean at 90 %; a hot area of 30 % of the meadow must not go unseen (9 plots,
+  // so the minimum of 10 applies: this journey is about zero plots, undo and correction)
+  const flags = [
+    ...['--kind', 'count', '--target', 'relative:0.3', '--level', '0.9', '--plot-area', '0.25'],
+    ...['--hot-spot-share', '0.3'],
+  ];
   await start(page);
   await page.goto('/#/new');
   await page.getByLabel('Study name').fill('Snails, north meadow');
@@ -169,6 +191,7 @@ test('count journey: snails per 0.25 m² quadrat, zero plots, undo, correction, 
   await page.getByRole('radio', { name: /^Relative/ }).check();
   await page.getByLabel('Target: ± % of the estimate').fill('30');
   await page.getByRole('radio', { name: /^90 %/ }).check();
+  await page.getByLabel('Smallest share of the site that must not go unseen').fill('30');
   await page.getByLabel('I have read the cautions').check();
   await page.getByRole('button', { name: 'Start the study' }).click();
   await expect(page.getByTestId('verdict')).toHaveText('keep going');
@@ -218,8 +241,18 @@ test('pass/fail journey: cracked welds in a lot of 200 against an entered limit,
   page,
 }) => {
   test.setTimeout(90_000);
-  // invented items; decide against a tolerable rate of 25 % (typed in with its source and date)
-  const flags = ['--kind', 'pass-fail', '--target', 'limit:0.25', '--population', '200'];
+  // invented items; decide against a tolerable rate of 25 % (typed in with its source and date); a share of 25 %
+  // of the lot must not go unseen either (11 items: 1 − 0.75¹¹ = 0.958 ≥ 0.95, by hand)
+  const flags = [
+    '--kind',
+    'pass-fail',
+    '--target',
+    'limit:0.25',
+    '--population',
+    '200',
+    '--hot-spot-share',
+    '0.25',
+  ];
   await start(page);
   await page.goto('/#/new');
   await page.getByLabel('Study name').fill('Welds, frame batch 12');
@@ -230,6 +263,7 @@ test('pass/fail journey: cracked welds in a lot of 200 against an entered limit,
   await page.getByLabel('Source of the limit').fill('Client acceptance note CA-7 (invented)');
   await page.getByLabel('Date of that source').fill('2026-05-01');
   await page.getByLabel('Lot or population size (optional)').fill('200');
+  await page.getByLabel('Smallest share of the lot that must not go unseen').fill('25');
   await page.getByLabel('I have read the cautions').check();
   await page.getByRole('button', { name: 'Start the study' }).click();
   await expect(page.getByTestId('verdict')).toHaveText('keep going');

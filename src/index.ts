@@ -50,6 +50,7 @@ export { studentTInterval } from './stats/student-t-interval.ts';
 export { wilsonCcInterval } from './stats/wilson-cc-interval.ts';
 export { wilsonInterval } from './stats/wilson-interval.ts';
 export {
+  minimumBeforeVerdict,
   ruleWarnings,
   type SprtModel,
   sprtBoundaries,

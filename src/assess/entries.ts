@@ -15,6 +15,26 @@ import type { AnalysisSetup, Point } from '../model/types.ts';
 import { RunningMoments } from '../stats/running-moments.ts';
 import { RunningSummary } from '../stats/running-summary.ts';
 
+/**
+ * The first entry whose arrival more than doubled the sample SD of the entries before it, when at least
+ * SPREAD_JUMP_MIN came before. The SD ratio with and without one value is Grubbs's statistic for that value
+ * (Grubbs FE (1950) Sample criteria for testing outlying observations, Ann. Math. Stat. 21:27–58: the ratio
+ * of the sums of squares without and with the suspect value); a doubling is our fixed threshold, chosen
+ * because (a) it needs the new value about √(3n) SDs from the mean (5.5 SDs at n = 10, 9 at n = 29), which
+ * near-normal data almost never give, while one value from a hot area ten times the background gives it,
+ * and (b) from 10 entries on the SD itself is known to within less than a factor of two (its one-sided 95 %
+ * upper bound is 1.65·s at 9 degrees of freedom), so a doubling is not the SD's own uncertainty.
+ * A flag, never a verdict: skewed data (lognormal CV ≥ 1) can give it without a hot area.
+ */
+export interface SpreadJump {
+  /** The entry's number among the counted entries (1-based). */
+  entry: number;
+  value: number;
+  /** SD after the entry / SD before it. */
+  ratio: number;
+}
+export const SPREAD_JUMP_MIN = 10;
+
 /** Primary units (transects, rooms) of one group: the whole study, or one stratum. */
 export class UnitGroup {
   readonly moments = new UnitMoments();
@@ -94,9 +114,12 @@ export class EntryState {
   substituted = 0;
   /** Non-detects whose reporting limit is at or above a limit target. */
   censoredAtOrAboveLimit = 0;
+  /** The first entry that doubled the spread (measurements and counts), or null. */
+  spreadJump: SpreadJump | null = null;
   /** True when the study's setup or some entry calls for a design-based estimate. */
   design: boolean;
   private readonly halfLimit: boolean;
+  private readonly watchSpread: boolean;
   private readonly limit: number | null;
 
   constructor(readonly setup: AnalysisSetup) {
@@ -104,6 +127,8 @@ export class EntryState {
     for (const s of this.strata) this.stratumByName.set(s.name, s);
     this.design = this.strata.length > 0 || setup.design === 'composite';
     this.halfLimit = setup.nonDetects === 'half-limit';
+    // a pass/fail item's spread follows from the share alone: the first defect is no jump in a site's values
+    this.watchSpread = setup.kind !== 'pass-fail';
     this.limit = setup.target?.kind === 'limit' ? setup.target.value : null;
   }
 
@@ -129,8 +154,22 @@ export class EntryState {
     this.values.push(value);
     this.points.push({ value });
     this.pointValues.push(value);
-    this.pointMoments.add(value);
+    this.addMoment(value);
     this.units.add(value, undefined);
+  }
+
+  /** Adds to the running moments, noting the first spread jump (O(1)). */
+  private addMoment(value: number): void {
+    const m = this.pointMoments;
+    if (!this.watchSpread || this.spreadJump !== null || m.n < SPREAD_JUMP_MIN) {
+      m.add(value);
+      return;
+    }
+    const before = Math.max(0, m.m2) / (m.n - 1);
+    m.add(value);
+    const after = Math.max(0, m.m2) / (m.n - 1);
+    if (before > 0 && after >= 4 * before)
+      this.spreadJump = { entry: m.n, value, ratio: Math.sqrt(after / before) };
   }
 
   add(entry: Point): void {
@@ -150,7 +189,7 @@ export class EntryState {
     if (p.censored !== true) this.values.push(p.value);
     this.points.push(p);
     this.pointValues.push(p.value);
-    this.pointMoments.add(p.value);
+    this.addMoment(p.value);
     this.units.add(p.value, p.cluster);
     if (this.strata.length > 0) {
       const s = p.stratum === undefined ? undefined : this.stratumByName.get(p.stratum);

@@ -16,8 +16,11 @@
  * (the pass/fail estimator's guard), while a limit may still be decided (zero-acceptance, 1 − α^(1/n)).
  */
 import type { Interval } from '../model/interval.ts';
+import { SETUP_DEFAULTS } from '../model/setup-lists.ts';
 import type { AnalysisSetup, Assessment, More, Verdict } from '../model/types.ts';
-import { decide, type RuleContext } from '../stop/index.ts';
+import { hotSpotDetection } from '../stats/hot-spot-detection.ts';
+import { decide, HOT_SPOT_DETECTION, minimumBeforeVerdict, type RuleContext } from '../stop/index.ts';
+import type { SpreadJump } from './entries.ts';
 import type { Estimator } from './estimator.ts';
 import { type MoreMemory, projectMore } from './more.ts';
 import { checkTarget, effectiveSided, halfWidth } from './target.ts';
@@ -34,6 +37,8 @@ export interface Subject {
   stats: RuleContext['stats'];
   /** The entries' values in entry order (rules that look back read them); do not mutate. */
   values: readonly number[];
+  /** The first entry whose arrival doubled the spread (entries.ts, SpreadJump), or null. */
+  spreadJump?: SpreadJump | null;
 }
 
 export interface AssessOptions {
@@ -62,6 +67,15 @@ function keepGoing(reason: Extract<Verdict, { status: 'keep going' }>['reason'],
   return { status: 'keep going', reason, message };
 }
 
+/** Why no verdict yet: the minimum, and the hot-spot share when that is what sets it. */
+function belowMinimumMessage(min: number, setup: AnalysisSetup): string {
+  const share = setup.hotSpotShare ?? SETUP_DEFAULTS.hotSpotShare;
+  const byShare = min > setup.min;
+  return byShare
+    ? `Fewer than the minimum of ${min} entries; no verdict before then (${min} random entries find an area of ${+(share * 100).toPrecision(3)} % of the site or lot with 95 % probability).`
+    : `Fewer than the minimum of ${min} entries; no verdict before then.`;
+}
+
 /** Assesses the subject under a setup that has already passed the setup validator (running.ts checks it). */
 export function runPipeline(
   subject: Subject,
@@ -72,13 +86,29 @@ export function runPipeline(
   if (setup.population !== undefined && n > setup.population)
     throw new RangeError('assess requires n <= population');
   const target = setup.target;
-  const min = estimator.min ?? setup.min;
+  // composites set their own minimum (replicates, each made of many increments over the whole area, so the
+  // hot-spot argument for single entries does not apply); otherwise the larger of min and the hot-spot share's
+  const min = estimator.min ?? minimumBeforeVerdict(setup);
   const sided = effectiveSided(setup, estimator.estimate);
   // details and warnings are built once here and extended in place (copying a dictionary-shaped object
   // per entry cost ~10× the rest of the per-entry path)
   const details = estimator.details();
   const warnings = estimator.warnings();
   if (target?.kind === 'limit' && setup.sided === 'two') details.sidedChosen = sided;
+  details.minimum = min;
+  if (estimator.min === undefined && n >= 1) {
+    details.hotSpotShare = setup.hotSpotShare ?? SETUP_DEFAULTS.hotSpotShare;
+    details.unseenShare = hotSpotDetection.unseenShare(n, HOT_SPOT_DETECTION);
+  }
+  const jump = subject.spreadJump;
+  if (jump) {
+    details.spreadJumpEntry = jump.entry;
+    details.spreadJumpValue = jump.value;
+    details.spreadJumpRatio = jump.ratio;
+    warnings.push(
+      `HOT SPOT? Entry ${jump.entry} (${jump.value}) more than doubled the spread of the values before it (SD ×${jump.ratio.toFixed(1)}): a small area of much higher values may be present. Look at where it was taken, and consider more entries there or strata.`,
+    );
+  }
 
   let interval: Interval | null = estimator.intervalAt ? estimator.intervalAt(setup.level, sided) : null;
   let level = setup.level;
@@ -91,7 +121,7 @@ export function runPipeline(
     verdict =
       guard?.reason === 'below-minimum'
         ? keepGoing(guard.reason, guard.message)
-        : keepGoing('below-minimum', `Fewer than the minimum of ${min} entries; no verdict before then.`);
+        : keepGoing('below-minimum', belowMinimumMessage(min, setup));
   else if (guard !== null) verdict = keepGoing(guard.reason, guard.message);
   else if (target === undefined)
     verdict = keepGoing('no-target', 'No target set: the interval is shown only.');

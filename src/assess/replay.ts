@@ -22,7 +22,7 @@ import type { Interval } from '../model/interval.ts';
 import type { AnalysisSetup, Sided, Target, VerdictStatus } from '../model/types.ts';
 import { garwoodBracket } from '../stats/garwood-poisson-bracket.ts';
 import { landInnerBounds } from '../stats/land-inner-bounds.ts';
-import { decide, type RuleContext } from '../stop/index.ts';
+import { decide, minimumBeforeVerdict, type RuleContext } from '../stop/index.ts';
 import { RunningAssessment } from './running.ts';
 import { kindEstimator } from './subject.ts';
 import { checkTarget, effectiveSided } from './target.ts';
@@ -53,6 +53,7 @@ export function replaySequence(
   const state = running.entryState;
   const summary = state.summary;
   const target = setup.target;
+  const min = minimumBeforeVerdict(setup);
   const sidedSetups: Partial<Record<Sided, AnalysisSetup>> = {};
   let stoppedAt: number | null = null;
   // one context for the whole sequence, updated per entry (no per-entry closures or objects)
@@ -103,7 +104,7 @@ export function replaySequence(
       }
       continue;
     }
-    if (n < setup.min) continue;
+    if (n < min) continue;
     const key = memo !== undefined && setup.kind === 'pass-fail' ? summary.total * 4194304 + n : -1;
     if (key >= 0) {
       const hit = memo?.get(key);

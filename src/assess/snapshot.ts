@@ -19,7 +19,7 @@ import type { AnalysisSetup, Point } from '../model/types.ts';
 import { RunningAssessment, type RunningCarried, SERIES_MAX, type SeriesPoint } from './running.ts';
 
 /** Raised whenever the shape or the meaning of the snapshot changes; older snapshots are then rebuilt. */
-export const RUNNING_SNAPSHOT_VERSION = 1;
+export const RUNNING_SNAPSHOT_VERSION = 2;
 
 /** An entry that carries more than its value: [index, censored, stratum, primary unit]. */
 export type EntryMarks = [number, boolean, string | null, string | null];

@@ -87,6 +87,7 @@ export function subjectOf(state: EntryState, setup: AnalysisSetup): Subject {
         logSd: s.positive === n && n >= 2 ? s.logSd : null,
       },
       values: state.values,
+      spreadJump: state.spreadJump,
     };
   }
   const chosen = designChoice(state, setup);
@@ -107,5 +108,6 @@ export function subjectOf(state: EntryState, setup: AnalysisSetup): Subject {
       logSd: null,
     },
     values: state.pointValues,
+    spreadJump: state.spreadJump,
   };
 }

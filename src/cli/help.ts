@@ -35,6 +35,9 @@ const STUDY_FLAGS_TEXT = `Study flags (assess, bundle, replay):
                        naive is for comparison only)
                        pass-fail targets are proportions: limit:L with 0 < L < 1, margin:D with D < 1
   --min N              observations before any verdict other than "keep going" (default 10)
+  --hot-spot-share S   smallest share of the site or lot that must not go unseen, 0.1 or 10% (default 10%):
+                       no verdict before the entries find such an area with 95 % probability (29 for 10 %);
+                       the minimum is the larger of this and --min
   --population N       finite population or lot size, sampled without replacement (never fewer than n)
   --plot-area A        plot area for counts; densities are reported per unit of this area
   --max N              planned maximum number of observations, not below --min (also the SPRT truncation)
@@ -104,7 +107,10 @@ Prints one JSON object:
                        by at most ±50 % of the previous entry's projected total (details.moreSmoothed,
                        details.moreRawLikely say when that happened).
   methodLabel          the method and rule in plain words
-  details              sd, se, halfWidth, relativeHalfWidth, precision (SE/mean), dispersion index, densities…
+  details              sd, se, halfWidth, relativeHalfWidth, precision (SE/mean), dispersion index, densities…;
+                       minimum (entries before any verdict), hotSpotShare, unseenShare (the largest share of
+                       the site n random entries all miss 1 time in 20), spreadJumpEntry/Value/Ratio (the
+                       first value that more than doubled the SD, a possible hot spot)
   warnings             plain-language warnings for this data (skew, clumping, ignored options…)
   setupFrom            "flags", "bundle" or "bundle+flags": where the setup came from
   input                "lines", "csv", "export" (a study's CSV export) or "bundle": how FILE was read

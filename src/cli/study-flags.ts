@@ -24,6 +24,7 @@ export const STUDY_FLAGS: FlagSpec = Object.fromEntries(
     'target',
     'rule',
     'min',
+    'hot-spot-share',
     'population',
     'plot-area',
     'max',
@@ -48,6 +49,7 @@ const FLAG_OF: Readonly<Record<string, string>> = {
   'target.value': 'target',
   rule: 'rule',
   min: 'min',
+  hotSpotShare: 'hot-spot-share',
   population: 'population',
   plotArea: 'plot-area',
   max: 'max',
@@ -98,6 +100,16 @@ function number(flags: ReadonlyMap<string, string>, name: string): number | unde
   return Number(raw.trim());
 }
 
+/** A share as a fraction or a percentage: `0.1` and `10%` both mean 10 % (the range is the validator's). */
+function share(flags: ReadonlyMap<string, string>, name: string): number | undefined {
+  const raw = flags.get(name);
+  if (raw === undefined) return undefined;
+  const t = raw.trim();
+  const s = t.endsWith('%') ? t.slice(0, -1).trim() : t;
+  if (!NUMBER.test(s)) throw new UsageError(`flag --${name}: "${raw}" is not a number`);
+  return s === t ? Number(s) : Number(s) / 100;
+}
+
 /** Parses `margin:D`, `relative:R`, `precision:D` or `limit:L` (the value's range is the validator's). */
 export function parseTarget(raw: string, dataKind?: string): Target {
   const m = /^(margin|relative|precision|limit):(.+)$/.exec(raw.trim());
@@ -137,6 +149,7 @@ export function readStudyFlags(flags: ReadonlyMap<string, string>): Record<strin
     target: flags.has('target') ? parseTarget(flags.get('target')!, flags.get('kind')) : undefined,
     rule: flags.get('rule') ?? SETUP_DEFAULTS.rule,
     min: number(flags, 'min') ?? SETUP_DEFAULTS.min,
+    hotSpotShare: share(flags, 'hot-spot-share') ?? SETUP_DEFAULTS.hotSpotShare,
     population: number(flags, 'population'),
     plotArea: number(flags, 'plot-area'),
     max: number(flags, 'max'),

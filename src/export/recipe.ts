@@ -49,6 +49,7 @@ export function assessArgs(setup: StudySetup): string[] {
   if (setup.method) f.push('--method', setup.method);
   if (setup.target) f.push('--target', `${setup.target.kind}:${setup.target.value}`);
   f.push('--rule', setup.rule, '--min', String(setup.min));
+  if (setup.hotSpotShare !== undefined) f.push('--hot-spot-share', String(setup.hotSpotShare));
   if (setup.population !== undefined) f.push('--population', String(setup.population));
   if (setup.plotArea !== undefined) f.push('--plot-area', String(setup.plotArea));
   if (setup.max !== undefined) f.push('--max', String(setup.max));

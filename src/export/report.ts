@@ -31,6 +31,7 @@ import {
   kindWords,
   levelWords,
   methodWords,
+  minimumWords,
   moreWords,
   percent,
   plain,
@@ -38,6 +39,7 @@ import {
   ruleWords,
   sidedWords,
   targetWords,
+  unseenWords,
   valueUnit,
   withUnit,
 } from '../words/index.ts';
@@ -159,7 +161,9 @@ export async function reportHtml(bundle: Bundle, options: ReportOptions): Promis
   // the measured shortfalls of this rule for this setup (the coverage benchmark), as on the screens
   const ruleLimits = ruleWarnings(setup);
   const more = moreWords(a);
-  const done = doneWords(a);
+  const done = doneWords(a, sep);
+  // a reached verdict says what could still be unseen in its own words (doneWords); otherwise a row does
+  const unseen = done === null ? unseenWords(a, sep) : null;
 
   const setupRows = [
     row('Data kind', esc(kindWords(setup, sep))),
@@ -181,7 +185,7 @@ export async function reportHtml(bundle: Bundle, options: ReportOptions): Promis
         )
       : '',
     row('Stopping rule', esc(ruleWords(setup.rule))),
-    row('Minimum before a verdict', esc(setup.min)),
+    row('Minimum before a verdict', esc(minimumWords(a, setup, sep))),
     setup.population !== undefined ? row('Population / lot size', esc(setup.population)) : '',
     setup.max !== undefined ? row('Planned maximum', esc(setup.max)) : '',
     setup.reportingLimit !== undefined
@@ -255,6 +259,7 @@ ${done ? `<p>${esc(done)}</p>` : ''}
 ${row('Estimate', esc(estimateWords(a, setup, sep)))}
 ${row(`Interval (${confidenceWords(a.level, a.sided, sep)})`, esc(intervalWords(a, setup, sep)))}
 ${more ? row('More needed', esc(more)) : ''}
+${unseen ? row('Could still be unseen', esc(unseen)) : ''}
 ${row('Counted entries', esc(a.n))}
 </table>
 </section>

@@ -45,6 +45,7 @@ export const SETUP_DEFAULTS = {
   sided: 'two',
   rule: 'standard',
   min: 10,
+  hotSpotShare: 0.1,
   sprtAlpha: 0.05,
   sprtBeta: 0.1,
 } as const satisfies {
@@ -52,6 +53,7 @@ export const SETUP_DEFAULTS = {
   sided: Sided;
   rule: RuleName;
   min: number;
+  hotSpotShare: number;
   sprtAlpha: number;
   sprtBeta: number;
 };

@@ -12,7 +12,7 @@
  * setup member this program does not know would be silently ignored by the statistics.
  *
  * Ranges a field practitioner expects, and why:
- * - level, strictly between 0 and 1; SPRT α and β strictly between 0 and 0.5 (a test that errs half the
+ * - level and the hot-spot share, strictly between 0 and 1 (a share of 1 would be the whole site); SPRT α and β strictly between 0 and 0.5 (a test that errs half the
  *   time decides nothing; Wald 1947, Sequential Analysis, needs α + β < 1);
  * - the SPRT indifference zone [lowerBound, upperBound] has lowerBound > 0 (every family of the limit
  *   decision — Bernoulli, Poisson, negative binomial, lognormal — is defined for a positive rate or
@@ -52,6 +52,7 @@ const SETUP_MEMBERS: Record<keyof StudySetup, true> = {
   target: true,
   rule: true,
   min: true,
+  hotSpotShare: true,
   population: true,
   plotArea: true,
   max: true,
@@ -183,6 +184,7 @@ export function setupProblems(value: unknown): SetupProblem[] {
   if (rule === 'sprt' && (s.target === undefined || (isTargetKind(targetKind) && targetKind !== 'limit')))
     p.add('rule', 'the limit decision (sprt) needs a limit target');
   const min = p.number('min', s.min, { required: true, test: isWhole, rule: WHOLE }) ? s.min : undefined;
+  p.number('hotSpotShare', s.hotSpotShare, { test: (n) => n > 0 && n < 1, rule: BETWEEN_0_1 });
   p.number('population', s.population, { test: isWhole, rule: WHOLE });
   if (p.number('plotArea', s.plotArea, { test: (n) => n > 0, rule: ABOVE_0 }) && kind && kind !== 'count')
     p.add('plotArea', 'applies to counts only');

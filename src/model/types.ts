@@ -66,8 +66,14 @@ export interface AnalysisSetup {
   method?: MethodName;
   target?: Target;
   rule: RuleName;
-  /** Observations before any verdict other than `keep going` (default 10). */
+  /** Observations before any verdict other than `keep going` (default 10; see hotSpotShare). */
   min: number;
+  /**
+   * The smallest share of the site or lot that must not go unseen (a fraction, default 0.10): no verdict
+   * before the entries would hit an area of that share with 95 % probability (29 entries for 10 %). The
+   * minimum before a verdict is the larger of this and `min` (src/stop/minimum.ts).
+   */
+  hotSpotShare?: number;
   /** Finite population / lot size (sampling without replacement). */
   population?: number;
   /** Plot area for counts; densities are per unit of this area. */

@@ -20,6 +20,7 @@ import { strictRule } from './strict.ts';
 export { betaBinomialConfidenceSequence } from './beta-binomial-confidence-sequence.ts';
 export { greenStopLine } from './green-stop-line.ts';
 export { kunoStopLine } from './kuno-stop-line.ts';
+export { HOT_SPOT_DETECTION, minimumBeforeVerdict } from './minimum.ts';
 export type { Interval, RuleContext, RuleDecision, TargetCheck } from './rule-context.ts';
 export { ruleWarnings } from './rule-warnings.ts';
 export { sprtMaxN, sprtModelOf } from './sprt.ts';

@@ -11,17 +11,19 @@
  * // "The naive rule …"
  */
 import type { AnalysisSetup } from '../model/types.ts';
+import { minimumBeforeVerdict } from './minimum.ts';
 
 export function ruleWarnings(setup: AnalysisSetup): string[] {
   const w: string[] = [];
   const { kind, rule, method, target } = setup;
+  const min = minimumBeforeVerdict(setup);
   if (rule === 'naive')
     w.push(
       'The naive rule stops the first time the interval looks narrow enough; its "95 %" interval then holds the true value less often (as low as 77 % for very skewed data, 19 % for rare pass/fail outcomes). Use it only for comparison.',
     );
-  if (setup.min < 10 && rule !== 'sprt')
+  if (min < 10 && rule !== 'sprt')
     w.push(
-      'A minimum below 10 observations makes early stops on a lucky run likely; 10 or more is recommended.',
+      'A minimum below 10 observations (the larger of the minimum and what the hot-spot share asks for) makes early stops on a lucky run likely; 10 or more is recommended.',
     );
   if (kind === 'measurement' && rule === 'standard' && (method === 'cox' || method === 'land'))
     w.push(
@@ -47,7 +49,7 @@ export function ruleWarnings(setup: AnalysisSetup): string[] {
     w.push(
       'No “enough” is given while every item so far has the same outcome, so with a rare outcome (about 2 %) the study runs on until the first one turns up: in simulations it took about 1.4 times the planned number of items. To show that an outcome is rare, decide against a limit instead (no counted outcome in enough items is a valid answer).',
     );
-  if (kind === 'pass-fail' && setup.min < 30 && (rule === 'standard' || rule === 'naive'))
+  if (kind === 'pass-fail' && min < 20 && (rule === 'standard' || rule === 'naive'))
     w.push(
       'For rare outcomes (under about 5 %), a minimum of 20–30 items is recommended before any verdict.',
     );

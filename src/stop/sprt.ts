@@ -26,6 +26,7 @@
  */
 import type { AnalysisSetup, VerdictStatus } from '../model/types.ts';
 import { cachedChiSquareQuantile } from '../stats/quantile-cache.ts';
+import { minimumBeforeVerdict } from './minimum.ts';
 import { pilotStats } from './pilot-stats.ts';
 import type { RuleContext, RuleDecision } from './rule-context.ts';
 import { type SprtModel, sprtBoundaries } from './sprt-boundaries.ts';
@@ -45,7 +46,7 @@ export function sprtModelOf(
     const k = setup.planning?.negBinomialK;
     return k !== undefined ? { family: 'negative-binomial', k, ...base } : { family: 'poisson', ...base };
   }
-  const m = Math.max(2, setup.min);
+  const m = Math.max(2, minimumBeforeVerdict(setup));
   if (values.length < m) return null;
   const log = setup.method !== 't';
   for (let i = 0; i < m; i++) if (log && !((values[i] as number) > 0)) return null;
@@ -64,7 +65,11 @@ export function sprtModelOf(
 
 /** Truncation point of the test. */
 export function sprtMaxN(setup: AnalysisSetup, model: SprtModel): number {
-  return setup.sprt?.maxN ?? setup.max ?? Math.max(setup.min, Math.ceil(3 * sprtFixedSize(model)));
+  return (
+    setup.sprt?.maxN ??
+    setup.max ??
+    Math.max(minimumBeforeVerdict(setup), Math.ceil(3 * sprtFixedSize(model)))
+  );
 }
 
 export function sprtRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {

@@ -24,6 +24,7 @@
 import type { AnalysisSetup } from '../model/types.ts';
 import { cachedNormalQuantile, cachedStudentTQuantile } from '../stats/quantile-cache.ts';
 import { betaBinomialConfidenceSequence } from './beta-binomial-confidence-sequence.ts';
+import { minimumBeforeVerdict } from './minimum.ts';
 
 export function strictCost(
   setup: AnalysisSetup,
@@ -31,7 +32,7 @@ export function strictCost(
   guessP = 0.5,
 ): { expectedTotal: number; factor: number } {
   if (!(nPlan >= 1)) throw new RangeError('strictCost requires nPlan >= 1');
-  const m = Math.max(2, setup.min);
+  const m = Math.max(2, minimumBeforeVerdict(setup));
   const q = setup.sided === 'two' ? 1 - (1 - setup.level) / 2 : setup.level;
   if (setup.kind !== 'pass-fail') {
     const ratio = (cachedStudentTQuantile(q, m - 1) / cachedNormalQuantile(q)) ** 2;

@@ -9,7 +9,7 @@
  * first time that interval meets the target; it is wider than the ordinary one, so it costs more items.
  *
  * For an analyst:
- *   measurement / count, target margin d: Stein (1945) two-stage, pilot m = setup.min (extended until the
+ *   measurement / count, target margin d: Stein (1945) two-stage, pilot m = the minimum before a verdict, minimum.ts (extended until the
  *     pilot SD is > 0), N = max(m, ⌊(t₍m−1₎ s_m/d)²⌋ + 1), report x̄_N ± d at n = N
  *     (exact ≥ 1 − α for normal data; stein-two-stage.ts). Counts add the c/m floor (c = 1) to s_m².
  *   measurement / count, target relative r: the same two-stage plan with d = r·x̄_m (approximate); with the
@@ -30,6 +30,7 @@
 import type { AnalysisSetup } from '../model/types.ts';
 import { cachedStudentTQuantile } from '../stats/quantile-cache.ts';
 import { betaBinomialConfidenceSequence } from './beta-binomial-confidence-sequence.ts';
+import { minimumBeforeVerdict } from './minimum.ts';
 import { pilotStats } from './pilot-stats.ts';
 import type { Interval, RuleContext, RuleDecision } from './rule-context.ts';
 import { decideOn, statusOf } from './status-of.ts';
@@ -54,7 +55,7 @@ export interface TwoStagePlan {
 export function twoStagePlan(values: readonly number[], setup: AnalysisSetup): TwoStagePlan | null {
   const target = setup.target;
   if (!target || target.kind === 'limit') return null;
-  const m = Math.max(2, setup.min);
+  const m = Math.max(2, minimumBeforeVerdict(setup));
   const log = setup.kind === 'measurement' && setup.method === 'cox' && target.kind === 'relative';
   // The pilot is the first m values, extended while its spread is zero (Stein needs s_m > 0).
   let k = m;

@@ -24,4 +24,11 @@ export {
   valueUnit,
   withUnit,
 } from './study.ts';
-export { decisionWords, doneWords, moreWords } from './verdict.ts';
+export {
+  decisionWords,
+  doneWords,
+  minimumWords,
+  moreWords,
+  spreadJumpWords,
+  unseenWords,
+} from './verdict.ts';

@@ -35,10 +35,17 @@ describe('replay output', () => {
   it('the strict rule stops later than the naive one on the same sequence', () => {
     const input = `${JSON.stringify({ values: steady })}\n`;
     const naive = JSON.parse(
-      run(['--kind', 'measurement', '--target', 'margin:0.2', '--rule', 'naive'], input).stdout,
+      // a hot-spot share of 50 % (5 entries) leaves the minimum at 10, so the two rules can differ
+      run(
+        ['--kind', 'measurement', '--target', 'margin:0.2', '--rule', 'naive', '--hot-spot-share', '0.5'],
+        input,
+      ).stdout,
     );
     const strict = JSON.parse(
-      run(['--kind', 'measurement', '--target', 'margin:0.2', '--rule', 'strict'], input).stdout,
+      run(
+        ['--kind', 'measurement', '--target', 'margin:0.2', '--rule', 'strict', '--hot-spot-share', '0.5'],
+        input,
+      ).stdout,
     );
     expect(strict.stoppedAt).toBeGreaterThan(naive.stoppedAt);
   });

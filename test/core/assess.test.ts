@@ -7,7 +7,15 @@ import type { AnalysisSetup, Point } from '../../src/model/types.ts';
 import { RunningSummary } from '../../src/stats/running-summary.ts';
 
 const pts = (xs: number[]): Point[] => xs.map((value) => ({ value }));
-const base: AnalysisSetup = { kind: 'measurement', level: 0.95, sided: 'two', rule: 'naive', min: 10 };
+// a hot-spot share of 50 % needs only 5 entries (1 − 0.5⁵ ≥ 0.95), so `min` sets the minimum in these tests
+const base: AnalysisSetup = {
+  kind: 'measurement',
+  level: 0.95,
+  sided: 'two',
+  rule: 'naive',
+  min: 10,
+  hotSpotShare: 0.5,
+};
 const normal12 = [49.2, 51.3, 47.9, 52.4, 50.1, 48.8, 53.0, 50.6, 49.5, 51.9, 47.4, 50.8];
 
 describe('guards (never anything but keep going)', () => {

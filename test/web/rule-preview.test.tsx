@@ -110,6 +110,8 @@ describe('new study: live figures of the chosen rule', () => {
   it('strict on measurements: about 33 % more than a fixed plan (Stein, m = 10, 95 %: ratio 1.3321)', async () => {
     render(<NewStudyScreen />);
     type('f-unit', 'mg/kg');
+    // a hot-spot share of 50 % needs 5 entries, so the pilot is the minimum of 10
+    type('f-hotSpot', '50');
     type('f-targetValue', '0.5');
     choose('rule', /^Strict/);
     const p = await waitFor(() => screen.getByTestId('strict-preview'));
@@ -120,6 +122,7 @@ describe('new study: live figures of the chosen rule', () => {
       sided: 'two',
       rule: 'strict',
       min: 10,
+      hotSpotShare: 0.5,
       target: { kind: 'margin', value: 0.5 },
     };
     expect(factor).toBe(strictCost(setup, 100).factor);

@@ -28,7 +28,7 @@ interface Base {
   flags: Record<string, string>;
   setup: StudySetup;
 }
-const common = { level: 0.95, sided: 'two', rule: 'standard', min: 10 } as const;
+const common = { level: 0.95, sided: 'two', rule: 'standard', min: 10, hotSpotShare: 0.1 } as const;
 const S = { alpha: 0.05, beta: 0.1, lowerBound: 0.02, upperBound: 0.08 };
 const LIMIT = { kind: 'limit', value: 0.05, source: 'permit 12', date: '2026-01-01' } as const;
 const BASES: Record<'m' | 'c' | 'pf' | 'pfs', Base> = {
@@ -285,6 +285,31 @@ const CASES: Case[] = [
     refused: { path: 'min', message: WHOLE, flag: 'min', field: 'min' },
   },
   { rule: 'minimum 1', base: 'm', form: { min: '1' }, flags: { min: '1' }, setup: { min: 1 } },
+  // a share of the site: strictly between nothing and all of it; the form asks in percent, the command line
+  // takes a fraction or a percentage
+  {
+    rule: 'hot-spot share 0',
+    base: 'm',
+    form: { hotSpot: '0' },
+    flags: { 'hot-spot-share': '0' },
+    setup: { hotSpotShare: 0 },
+    refused: { path: 'hotSpotShare', message: BETWEEN_0_1, flag: 'hot-spot-share', field: 'hotSpot' },
+  },
+  {
+    rule: 'hot-spot share 100 %',
+    base: 'pf',
+    form: { hotSpot: '100' },
+    flags: { 'hot-spot-share': '100%' },
+    setup: { hotSpotShare: 1 },
+    refused: { path: 'hotSpotShare', message: BETWEEN_0_1, flag: 'hot-spot-share', field: 'hotSpot' },
+  },
+  {
+    rule: 'hot-spot share 20 %',
+    base: 'c',
+    form: { hotSpot: '20' },
+    flags: { 'hot-spot-share': '20%' },
+    setup: { hotSpotShare: 0.2 },
+  },
   {
     rule: 'planned maximum below the minimum',
     base: 'm',

@@ -35,6 +35,7 @@ describe('a valid setup', () => {
       target: { kind: 'limit', value: 2, source: 'Pest threshold 2026', date: '2026-03-01' },
       rule: 'sprt',
       min: 12,
+      hotSpotShare: 0.05,
       population: 400,
       plotArea: 0.25,
       max: 200,

@@ -31,6 +31,8 @@ describe("Stein's two-stage size N = max(m, ⌊(t₍1−α/2, m−1₎ s_m/d)²�
         sided: 'two',
         rule: 'strict',
         min: 10,
+        // a hot-spot share of 50 % needs 5 entries, so the pilot is min = 10
+        hotSpotShare: 0.5,
         target: { kind: 'margin', value: 1 },
       },
       100,

@@ -95,7 +95,7 @@ export function strictPreview(core: Core, setup: StudySetup): StrictPreview | nu
       factor: c.factor,
       reference,
       expectedTotal: c.expectedTotal,
-      basis: `Stein’s two-stage plan with a pilot of ${Math.max(2, setup.min)}: for every 100 observations a fixed-size plan would need`,
+      basis: `Stein’s two-stage plan with a pilot of ${Math.max(2, core.minimumBeforeVerdict(setup))}: for every 100 observations a fixed-size plan would need`,
     };
   }
   const guess = t.kind === 'limit' ? t.value / 2 : 0.5;

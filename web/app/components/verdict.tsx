@@ -13,6 +13,7 @@ import {
   moreWords,
   ruleWords,
   shownNumbers,
+  unseenWords,
 } from '../../core-light.ts';
 import { formatDuration } from '../../state/pace.ts';
 import type { StoredStudy } from '../../storage/schema.ts';
@@ -38,7 +39,8 @@ export function verdictClass(a: Assessment): string {
 export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs: number | null; sep: Sep }) {
   const { a, study, sep } = props;
   const s = shownNumbers(a, study.setup, sep);
-  const done = doneWords(a);
+  const done = doneWords(a, sep);
+  const unseen = unseenWords(a, sep);
   const more = moreText(a, props.paceMs);
   const decision = decisionWords(a, study.setup, sep);
   const checked = checkedLevelWords(a, study.setup, sep);
@@ -89,6 +91,7 @@ export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs:
           {s.interval ? `Interval: ${shortMethod(a, sep)}.` : 'No interval yet (needs at least 2 entries).'}
         </p>
         {checked && <p data-testid="checked-level">{checked}</p>}
+        {unseen && <p data-testid="unseen">{unseen}</p>}
         <p>
           Stopping rule: {ruleWords(study.setup.rule)}. {a.verdict.message}
         </p>

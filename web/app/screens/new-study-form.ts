@@ -36,6 +36,8 @@ export interface Form {
   sprtHigh: string;
   population: string;
   min: string;
+  /** The hot-spot share in percent (stored as a fraction, hotSpotShare). */
+  hotSpot: string;
   max: string;
   nbK: string;
   taylorA: string;
@@ -83,6 +85,7 @@ export const EMPTY: Form = {
   sprtHigh: '',
   population: '',
   min: String(SETUP_DEFAULTS.min),
+  hotSpot: String(SETUP_DEFAULTS.hotSpotShare * 100),
   max: '',
   nbK: '',
   taylorA: '',
@@ -139,6 +142,7 @@ export function fromStudy(s: StoredStudy, mode: 'duplicate' | 'change'): Form {
     sprtHigh: str(st.sprt?.upperBound, pct),
     population: str(st.population),
     min: String(st.min),
+    hotSpot: str(st.hotSpotShare, 100) || EMPTY.hotSpot,
     max: str(st.max),
     nbK: str(st.planning?.negBinomialK),
     taylorA: str(st.planning?.taylorA),
@@ -180,6 +184,7 @@ const LABEL: Record<keyof Form, string> = {
   sprtHigh: 'Upper edge of the indifference zone',
   population: 'Lot or population size',
   min: 'Minimum before any verdict',
+  hotSpot: 'Smallest area that must not go unseen',
   max: 'Planned maximum',
   nbK: 'Negative binomial k',
   taylorA: 'Taylor a',
@@ -212,6 +217,7 @@ const FIELD_OF: Record<string, keyof Form> = {
   'target.date': 'limitDate',
   rule: 'rule',
   min: 'min',
+  hotSpotShare: 'hotSpot',
   population: 'population',
   plotArea: 'plotArea',
   max: 'max',
@@ -328,6 +334,8 @@ export function buildSetup(f: Form): { setup: StudySetup; name: string } | { err
   }
   setup.population = num('population', true);
   setup.min = num('min');
+  const hot = num('hotSpot');
+  setup.hotSpotShare = hot === undefined ? undefined : hot / 100;
   setup.max = num('max', true);
   if (f.kind === 'count') {
     const planning = given({

@@ -277,9 +277,20 @@ export function NewStudyScreen(props: { from?: string; mode?: 'duplicate' | 'cha
           mode: 'numeric',
           help: 'For a finite lot, e.g. 400 items: fewer samples are needed when you sample a large part of it.',
         })}
+        {text(
+          'hotSpot',
+          f.kind === 'pass-fail'
+            ? 'Smallest share of the lot that must not go unseen'
+            : 'Smallest share of the site that must not go unseen',
+          {
+            mode: 'decimal',
+            suffix: '%',
+            help: 'No verdict before the entries would hit an area this large (or this share of the items) at least once, 19 times in 20: 10 % needs 29 entries, 20 % needs 14, 5 % needs 59.',
+          },
+        )}
         {text('min', 'Minimum before any verdict', {
           mode: 'numeric',
-          help: 'No “enough” before this many entries (10 is a safe default).',
+          help: 'No “enough” before this many entries; the larger of this and what the share above needs applies (10 is a safe floor).',
         })}
         {text('max', 'Planned maximum (optional)', {
           mode: 'numeric',

@@ -10,8 +10,10 @@ import {
   kindWords,
   levelWords,
   methodWords,
+  minimumWords,
   ruleWords,
   targetWords,
+  unseenWords,
 } from '../../core-light.ts';
 import { loadedCore } from '../../core-loader.ts';
 import { type StudyView, useStudy } from '../../state/use-study.ts';
@@ -96,8 +98,9 @@ function Report({ view }: { view: StudyView }) {
           After every entry the app recomputed {what} and its interval by {methodWords(a, sep)}, from the{' '}
           {a.n} entries that count (voided entries are left out). The target was {targetWords(t, setup, sep)},
           at {levelWords(setup.level, sep)} confidence, with the {ruleWords(setup.rule)} stopping rule; no
-          verdict other than “keep going” is given before {setup.min} entries or while the data have no
-          spread. Current verdict: {a.verdict.status} — {decisionWords(a, setup, sep)} ({a.verdict.message})
+          verdict other than “keep going” is given before {minimumWords(a, setup, sep)} or while the data have
+          no spread. {unseenWords(a, sep)} Current verdict: {a.verdict.status} —{' '}
+          {decisionWords(a, setup, sep)} ({a.verdict.message})
         </p>
         {a.warnings.length > 0 && (
           <ul class="warnings">
