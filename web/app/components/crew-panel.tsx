@@ -34,6 +34,7 @@ export function CrewPanel({ studyId, onClose }: { studyId: string; onClose(): vo
   const [busy, setBusy] = useState(false);
   const [msg, setMsg] = useState<Msg>(null);
   const status = useStore(syncStatus)[studyId];
+  const stopped = status ? status.stopped : link?.stopped?.message;
 
   const reread = async () => {
     const [s, l] = await Promise.all([getStudy(studyId), getLink(studyId)]);
@@ -89,10 +90,10 @@ export function CrewPanel({ studyId, onClose }: { studyId: string; onClose(): vo
         {link && (
           <>
             <div class="crew-sync">
-              <p role="status" data-testid="crew-sync-status" class={link.stopped ? 'error' : ''}>
-                {status ? statusLine(status) : link.stopped ? link.stopped.message : 'checking…'}
+              <p role="status" data-testid="crew-sync-status" class={stopped ? 'error' : ''}>
+                {status ? statusLine(status) : (stopped ?? 'checking…')}
               </p>
-              {link.stopped ? (
+              {stopped !== undefined ? (
                 <button
                   type="button"
                   class="btn"
