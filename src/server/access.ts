@@ -42,7 +42,12 @@ export async function authorize(
   const invalid = { 'WWW-Authenticate': 'Bearer realm="crew", error="invalid_token"' };
   if (row === undefined) throw new HttpError(401, 'unknown phone token', undefined, invalid);
   if (row.revoked)
-    throw new HttpError(401, "this phone's access to the study was revoked by its creator", undefined, invalid);
+    throw new HttpError(
+      401,
+      "this phone's access to the study was revoked by its creator",
+      undefined,
+      invalid,
+    );
   if (row.study_id !== studyId) throw new HttpError(403, 'this token opens another study, not this one');
   if (creatorOnly && !row.creator)
     throw new HttpError(403, 'only the phone that shared the study may do this');
@@ -76,7 +81,9 @@ export async function countAttempt(db: Db, bucket: string, limit: number): Promi
   if (row.hits === 1)
     // the first attempt of a minute in a bucket sweeps the counts of past minutes, which no longer
     // matter: the table holds about one minute of buckets
-    await db.query('delete from rate_limits where window_start < floor(extract(epoch from now()) / 60)::bigint');
+    await db.query(
+      'delete from rate_limits where window_start < floor(extract(epoch from now()) / 60)::bigint',
+    );
   if (row.hits > limit)
     throw new HttpError(429, `too many attempts; try again in ${row.retry} s`, undefined, {
       'Retry-After': String(row.retry),

@@ -10,16 +10,17 @@
  * everywhere else when a folder is given. Every refusal is a JSON ErrorBody; an unexpected failure is a
  * 500 that says nothing of its cause (the cause goes to the server's log).
  */
+
+import { getConnInfo } from '@hono/node-server/conninfo';
 import { type Context, Hono } from 'hono';
 import { cors } from 'hono/cors';
-import { getConnInfo } from '@hono/node-server/conninfo';
 import { API_PREFIX, type ErrorBody } from '../sync/protocol.ts';
 import { DEFAULT_LIMITS, type Limits } from './access.ts';
 import type { Db } from './db.ts';
 import { pull, push } from './events.ts';
 import { HttpError, securityHeaders } from './http.ts';
 import { serveApp } from './static-app.ts';
-import { crew, join, replaceCode, revokePhone, share, type StudyContext, withdrawCode } from './studies.ts';
+import { crew, join, replaceCode, revokePhone, type StudyContext, share, withdrawCode } from './studies.ts';
 
 export interface AppOptions {
   /** A replica for the reads that may lag (crew list, pull pages); default `db`. */

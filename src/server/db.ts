@@ -57,7 +57,9 @@ function lockFolder(dir: string): () => void {
       if ((err as NodeJS.ErrnoException).code !== 'EEXIST') throw err;
       const pid = Number(readFileSync(path, 'utf8'));
       if (Number.isInteger(pid) && pid > 0 && pid !== process.pid && processAlive(pid))
-        throw new Error(`data folder ${dir} is in use by process ${pid}; one server process per PGlite folder`);
+        throw new Error(
+          `data folder ${dir} is in use by process ${pid}; one server process per PGlite folder`,
+        );
       rmSync(path, { force: true });
     }
   }
@@ -94,6 +96,8 @@ export async function openPglite(dir?: string): Promise<Db> {
 export interface PostgresOptions {
   /** A schema to work in (created when missing), e.g. one per test run; default the server's search_path. */
   schema?: string;
+  /** False for a read replica: the schema is the primary's to create (default true). */
+  createSchema?: boolean;
   /** Most connections this process opens (default 10). */
   maxConnections?: number;
 }
@@ -105,7 +109,7 @@ export async function openPostgres(url: string, options: PostgresOptions = {}): 
   const { schema } = options;
   if (schema !== undefined && !SCHEMA_NAME.test(schema))
     throw new Error(`schema "${schema}": lower-case letters, digits and _ only`);
-  if (schema !== undefined) {
+  if (schema !== undefined && options.createSchema !== false) {
     const admin = new pg.Client({ connectionString: url });
     await admin.connect();
     try {

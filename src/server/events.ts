@@ -62,7 +62,9 @@ async function linkProblems(tx: Queryable, studyId: string, events: ObservationR
       const target = inBatch.get(id) ?? stored.get(id);
       if (id === e.id) problems.push(`events[${i}].${field}: an event cannot name itself`);
       else if (target === undefined)
-        problems.push(`events[${i}].${field}: no event ${id} in this study (neither in this batch nor stored)`);
+        problems.push(
+          `events[${i}].${field}: no event ${id} in this study (neither in this batch nor stored)`,
+        );
       else if (target.voids !== undefined)
         problems.push(`events[${i}].${field}: ${id} is a void; only entries can be voided or corrected`);
     }
@@ -126,7 +128,9 @@ export async function pull(c: Context, s: StudyContext): Promise<Response> {
   if (!CURSOR.test(after)) problems.push(`after: not a cursor this server gave, got "${after.slice(0, 40)}"`);
   const limit = /^[0-9]{1,4}$/.test(limitText) ? Number(limitText) : Number.NaN;
   if (!(limit >= 1 && limit <= MAX_PULL_EVENTS))
-    problems.push(`limit: must be a whole number from 1 to ${MAX_PULL_EVENTS}, got "${limitText.slice(0, 40)}"`);
+    problems.push(
+      `limit: must be a whole number from 1 to ${MAX_PULL_EVENTS}, got "${limitText.slice(0, 40)}"`,
+    );
   if (problems.length > 0) throw new HttpError(400, 'the pull request is malformed', problems);
   const rows = await s.readDb.query<{ s: string; body: ObservationRecord }>(
     `select server_seq::text as s, body from events

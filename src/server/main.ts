@@ -2,8 +2,8 @@
  * `node dist-server/server.mjs [--port 8787] [--host 127.0.0.1] [--data DIR] [--app DIR | --no-app]
  * [--trust-proxy] [--allow-origin ORIGIN]…` — starts the crew server.
  *
- * Database: PostgreSQL at `DATABASE_URL` when it is set (reads that may lag go to `DATABASE_READ_URL`
- * when that is set too); otherwise the embedded PGlite in `--data` (default `CREW_DATA` or
+ * Database: PostgreSQL at `DATABASE_URL` when it is set (in the schema `DATABASE_SCHEMA` when that is set;
+ * reads that may lag go to `DATABASE_READ_URL` when that is set too); otherwise the embedded PGlite in `--data` (default `CREW_DATA` or
  * ./crew-data). Migrations run before the port opens. SIGTERM or SIGINT stops taking connections,
  * lets the requests in flight finish (at most 10 s), closes the database and exits 0.
  *
@@ -52,7 +52,8 @@ function parseFlags(argv: string[], env: NodeJS.ProcessEnv): Flags {
     else if (flag === '--data') flags.data = value();
     else if (flag === '--app') {
       const dir = value();
-      if (!existsSync(`${dir}/index.html`)) throw new FlagError(`--app: no index.html in "${dir}" (run npm run build)`);
+      if (!existsSync(`${dir}/index.html`))
+        throw new FlagError(`--app: no index.html in "${dir}" (run npm run build)`);
       flags.app = dir;
     } else if (flag === '--no-app') flags.app = undefined;
     else if (flag === '--trust-proxy') flags.trustProxy = true;
@@ -77,8 +78,11 @@ async function main(): Promise<void> {
   }
   const url = process.env.DATABASE_URL;
   const readUrl = process.env.DATABASE_READ_URL;
-  const db: Db = url ? await openPostgres(url) : await openPglite(flags.data);
-  const readDb = url && readUrl ? await openPostgres(readUrl) : undefined;
+  const schema = process.env.DATABASE_SCHEMA;
+  const pgOptions = schema ? { schema } : {};
+  const db: Db = url ? await openPostgres(url, pgOptions) : await openPglite(flags.data);
+  const readDb =
+    url && readUrl ? await openPostgres(readUrl, { ...pgOptions, createSchema: false }) : undefined;
   const applied = await migrate(db);
   if (applied.length > 0) console.log(`database: migrations ${applied.join(', ')} applied`);
   const app = createApp(db, {
@@ -102,6 +106,11 @@ async function main(): Promise<void> {
     if (stopping) return;
     stopping = true;
     console.log(`${signal}: finishing the requests in flight, then stopping`);
+    // kept-alive connections that go idle after their last answer would hold close() for their timeout
+    const idle = setInterval(() => {
+      if ('closeIdleConnections' in server) server.closeIdleConnections();
+    }, 100);
+    idle.unref();
     const force = setTimeout(() => {
       if ('closeAllConnections' in server) server.closeAllConnections();
     }, 10_000);

@@ -88,8 +88,7 @@ export async function migrate(db: Db, migrations: readonly Migration[] = MIGRATI
     const applied: number[] = [];
     for (const m of [...migrations].sort((a, b) => a.version - b.version)) {
       if (have.has(m.version)) continue;
-      for (const statement of m.sql.split(';').filter((s) => s.trim() !== ''))
-        await tx.query(statement);
+      for (const statement of m.sql.split(';').filter((s) => s.trim() !== '')) await tx.query(statement);
       await tx.query('insert into schema_migrations (version, name) values ($1, $2)', [m.version, m.name]);
       applied.push(m.version);
     }

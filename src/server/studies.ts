@@ -155,7 +155,10 @@ export async function revokePhone(c: Context, s: StudyContext): Promise<Response
   const phone = await authorize(c, s.db, c.req.param('id') ?? '', true);
   const target = c.req.param('phoneId') ?? '';
   if (target === phone.id)
-    throw new HttpError(400, "the sharing phone cannot revoke itself: it alone issues codes and revokes phones");
+    throw new HttpError(
+      400,
+      'the sharing phone cannot revoke itself: it alone issues codes and revokes phones',
+    );
   const rows = UUID.test(target)
     ? await s.db.query('update phones set revoked = true where id = $1 and study_id = $2 returning id', [
         target,

@@ -34,31 +34,55 @@ describe.each(backends())('crew server API on $name', (backend) => {
 
   async function sharedStudy(st: StudyRecord = newStudy()) {
     const request = client(app);
-    const shared = await request<ShareResponse>('POST', '/studies', { json: { study: st, device: 'phone-A' } });
+    const shared = await request<ShareResponse>('POST', '/studies', {
+      json: { study: st, device: 'phone-A' },
+    });
     expect(shared.status).toBe(201);
-    const joined = await request('POST', '/join', { json: { code: shared.body.crewCode, device: 'phone-B' } });
+    const joined = await request('POST', '/join', {
+      json: { code: shared.body.crewCode, device: 'phone-B' },
+    });
     expect(joined.status).toBe(200);
-    return { st, request, a: shared.body, b: joined.body as { token: string; phoneId: string }, code: shared.body.crewCode };
+    return {
+      st,
+      request,
+      a: shared.body,
+      b: joined.body as { token: string; phoneId: string },
+      code: shared.body.crewCode,
+    };
   }
   const countEvents = async (studyId: string) =>
-    Number((await db.query<{ n: string }>('select count(*)::text as n from events where study_id = $1', [studyId]))[0]!.n);
+    Number(
+      (
+        await db.query<{ n: string }>('select count(*)::text as n from events where study_id = $1', [studyId])
+      )[0]!.n,
+    );
 
   it('share, join, push, pull: both phones read every event, in the order stored', async () => {
     const { st, request, a, b } = await sharedStudy();
-    const joined = await request('POST', '/join', { json: { code: formatCrewCode(a.crewCode).toLowerCase(), device: 'phone-C' } });
+    const joined = await request('POST', '/join', {
+      json: { code: formatCrewCode(a.crewCode).toLowerCase(), device: 'phone-C' },
+    });
     expect(joined.status).toBe(200);
     expect(joined.body.study).toEqual(st);
     const evA = entriesOf(st, 'phone-A', [10.1, 10.2, 10.3]);
     const evB = entriesOf(st, 'phone-B', [9.9, 10.0]);
-    expect((await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: evA } })).body).toEqual({ stored: 3, alreadyPresent: 0 });
-    expect((await request('POST', `/studies/${st.id}/events`, { token: b.token, json: { events: evB } })).body).toEqual({ stored: 2, alreadyPresent: 0 });
+    expect(
+      (await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: evA } })).body,
+    ).toEqual({ stored: 3, alreadyPresent: 0 });
+    expect(
+      (await request('POST', `/studies/${st.id}/events`, { token: b.token, json: { events: evB } })).body,
+    ).toEqual({ stored: 2, alreadyPresent: 0 });
     const page1 = await request('GET', `/studies/${st.id}/events?limit=4`, { token: b.token });
     expect(page1.status).toBe(200);
     expect(page1.body.more).toBe(true);
-    const page2 = await request('GET', `/studies/${st.id}/events?after=${page1.body.cursor}`, { token: a.token });
+    const page2 = await request('GET', `/studies/${st.id}/events?after=${page1.body.cursor}`, {
+      token: a.token,
+    });
     expect(page2.body.more).toBe(false);
     expect([...page1.body.events, ...page2.body.events]).toEqual([...evA, ...evB]);
-    const empty = await request('GET', `/studies/${st.id}/events?after=${page2.body.cursor}`, { token: a.token });
+    const empty = await request('GET', `/studies/${st.id}/events?after=${page2.body.cursor}`, {
+      token: a.token,
+    });
     expect(empty.body).toEqual({ events: [], cursor: page2.body.cursor, more: false });
     const crew = await request('GET', `/studies/${st.id}`, { token: b.token });
     expect(crew.body.you).toBe(b.phoneId);
@@ -75,10 +99,22 @@ describe.each(backends())('crew server API on $name', (backend) => {
     const { st, request, a } = await sharedStudy();
     const ev = entriesOf(st, 'phone-A', [1, 2, 3, 4]);
     const path = `/studies/${st.id}/events`;
-    expect((await request('POST', path, { token: a.token, json: { events: ev } })).body).toEqual({ stored: 4, alreadyPresent: 0 });
-    expect((await request('POST', path, { token: a.token, json: { events: ev } })).body).toEqual({ stored: 0, alreadyPresent: 4 });
-    const more = [...ev.slice(2).map((e) => ({ ...e, seq: e.seq + 10 })), ...entriesOf(st, 'phone-A', [5], 5)];
-    expect((await request('POST', path, { token: a.token, json: { events: more } })).body).toEqual({ stored: 1, alreadyPresent: 2 });
+    expect((await request('POST', path, { token: a.token, json: { events: ev } })).body).toEqual({
+      stored: 4,
+      alreadyPresent: 0,
+    });
+    expect((await request('POST', path, { token: a.token, json: { events: ev } })).body).toEqual({
+      stored: 0,
+      alreadyPresent: 4,
+    });
+    const more = [
+      ...ev.slice(2).map((e) => ({ ...e, seq: e.seq + 10 })),
+      ...entriesOf(st, 'phone-A', [5], 5),
+    ];
+    expect((await request('POST', path, { token: a.token, json: { events: more } })).body).toEqual({
+      stored: 1,
+      alreadyPresent: 2,
+    });
     expect(await countEvents(st.id)).toBe(5);
   });
 
@@ -96,7 +132,10 @@ describe.each(backends())('crew server API on $name', (backend) => {
     // the same id under another study is another event's content too
     const other = await sharedStudy();
     const stolen = { ...ev[0]!, studyId: other.st.id };
-    const r2 = await other.request('POST', `/studies/${other.st.id}/events`, { token: other.a.token, json: { events: [stolen] } });
+    const r2 = await other.request('POST', `/studies/${other.st.id}/events`, {
+      token: other.a.token,
+      json: { events: [stolen] },
+    });
     expect(r2.status).toBe(409);
     expect(await countEvents(other.st.id)).toBe(0);
   });
@@ -130,18 +169,29 @@ describe.each(backends())('crew server API on $name', (backend) => {
       [{ events: [good, { ...bad, id: good!.id }] }, /^events\[1\]\.id: same id as events\[0\]/],
       [{ events: [] }, /^events: empty/],
       [{ events: [good], extra: 1 }, /^extra: unknown field/],
-      [{ events: [voidOf(st, { ...good!, id: newStudy().id }, 'phone-A', 1)] }, /^events\[0\]\.voids: no event/],
+      [
+        { events: [voidOf(st, { ...good!, id: newStudy().id }, 'phone-A', 1)] },
+        /^events\[0\]\.voids: no event/,
+      ],
     ];
     for (const [json, problem] of cases) {
       const r = await request('POST', path, { token: a.token, json });
       expect(r.status, JSON.stringify(json).slice(0, 80)).toBe(400);
-      expect(r.body.problems.some((p: string) => problem.test(p)), r.body.problems.join('\n')).toBe(true);
+      expect(
+        r.body.problems.some((p: string) => problem.test(p)),
+        r.body.problems.join('\n'),
+      ).toBe(true);
     }
     expect(await countEvents(st.id)).toBe(0);
     const pull = await request('GET', `/studies/${st.id}/events?after=x1&limit=0`, { token: a.token });
     expect(pull.status).toBe(400);
-    expect(pull.body.problems).toEqual([expect.stringMatching(/^after: /), expect.stringMatching(/^limit: /)]);
-    const share = await request('POST', '/studies', { json: { study: { ...newStudy(), setup: { kind: 'weight' } }, device: 'x' } });
+    expect(pull.body.problems).toEqual([
+      expect.stringMatching(/^after: /),
+      expect.stringMatching(/^limit: /),
+    ]);
+    const share = await request('POST', '/studies', {
+      json: { study: { ...newStudy(), setup: { kind: 'weight' } }, device: 'x' },
+    });
     expect(share.status).toBe(400);
     expect(share.body.problems.some((p: string) => p.startsWith('study.setup.kind'))).toBe(true);
   });
@@ -154,11 +204,19 @@ describe.each(backends())('crew server API on $name', (backend) => {
     expect(none.status).toBe(401);
     expect(none.headers.get('www-authenticate')).toMatch(/^Bearer /);
     expect((await one.request('GET', path, { token: 'x'.repeat(43) })).status).toBe(401);
-    const foreign = await one.request('POST', path, { token: two.a.token, json: { events: entriesOf(one.st, 'phone-A', [1]) } });
+    const foreign = await one.request('POST', path, {
+      token: two.a.token,
+      json: { events: entriesOf(one.st, 'phone-A', [1]) },
+    });
     expect(foreign.status).toBe(403);
     expect((await one.request('GET', `/studies/${one.st.id}`, { token: two.b.token })).status).toBe(403);
-    expect((await one.request('POST', `/studies/${one.st.id}/code`, { token: one.b.token })).status).toBe(403);
-    expect((await one.request('DELETE', `/studies/${one.st.id}/phones/${one.a.phoneId}`, { token: one.b.token })).status).toBe(403);
+    expect((await one.request('POST', `/studies/${one.st.id}/code`, { token: one.b.token })).status).toBe(
+      403,
+    );
+    expect(
+      (await one.request('DELETE', `/studies/${one.st.id}/phones/${one.a.phoneId}`, { token: one.b.token }))
+        .status,
+    ).toBe(403);
     expect(await countEvents(one.st.id)).toBe(0);
   });
 
@@ -166,13 +224,20 @@ describe.each(backends())('crew server API on $name', (backend) => {
     const { st, request, a, b } = await sharedStudy();
     const r = await request('DELETE', `/studies/${st.id}/phones/${b.phoneId}`, { token: a.token });
     expect(r.status).toBe(204);
-    const pushed = await request('POST', `/studies/${st.id}/events`, { token: b.token, json: { events: entriesOf(st, 'phone-B', [1]) } });
+    const pushed = await request('POST', `/studies/${st.id}/events`, {
+      token: b.token,
+      json: { events: entriesOf(st, 'phone-B', [1]) },
+    });
     expect(pushed.status).toBe(401);
     expect(pushed.body.error).toMatch(/revoked/);
     expect((await request('GET', `/studies/${st.id}/events`, { token: b.token })).status).toBe(401);
     expect((await request('GET', `/studies/${st.id}/events`, { token: a.token })).status).toBe(200);
-    expect((await request('DELETE', `/studies/${st.id}/phones/${a.phoneId}`, { token: a.token })).status).toBe(400);
-    expect((await request('DELETE', `/studies/${st.id}/phones/${newStudy().id}`, { token: a.token })).status).toBe(404);
+    expect(
+      (await request('DELETE', `/studies/${st.id}/phones/${a.phoneId}`, { token: a.token })).status,
+    ).toBe(400);
+    expect(
+      (await request('DELETE', `/studies/${st.id}/phones/${newStudy().id}`, { token: a.token })).status,
+    ).toBe(404);
     expect(await countEvents(st.id)).toBe(0);
   });
 
@@ -182,7 +247,9 @@ describe.each(backends())('crew server API on $name', (backend) => {
     expect(replaced.status).toBe(200);
     expect(replaced.body.crewCode).not.toBe(code);
     expect((await request('POST', '/join', { json: { code, device: 'late' } })).status).toBe(404);
-    expect((await request('POST', '/join', { json: { code: replaced.body.crewCode, device: 'late' } })).status).toBe(200);
+    expect(
+      (await request('POST', '/join', { json: { code: replaced.body.crewCode, device: 'late' } })).status,
+    ).toBe(200);
     expect((await request('DELETE', `/studies/${st.id}/code`, { token: a.token })).status).toBe(204);
     const after = await request('POST', '/join', { json: { code: replaced.body.crewCode, device: 'later' } });
     expect(after.status).toBe(404);
@@ -196,7 +263,9 @@ describe.each(backends())('crew server API on $name', (backend) => {
     const guesser = client(app, '203.0.113.7');
     const statuses: number[] = [];
     for (let i = 0; i < 11; i++)
-      statuses.push((await guesser('POST', '/join', { json: { code: '0000000000000000', device: 'g' } })).status);
+      statuses.push(
+        (await guesser('POST', '/join', { json: { code: '0000000000000000', device: 'g' } })).status,
+      );
     expect(statuses.slice(0, 10).every((s) => s === 404)).toBe(true);
     const last = await guesser('POST', '/join', { json: { code: a.crewCode, device: 'g' } });
     expect(last.status).toBe(429);
@@ -204,15 +273,23 @@ describe.each(backends())('crew server API on $name', (backend) => {
     expect(retry >= 1 && retry <= 60).toBe(true);
     // the right code from the limited address is refused too: the limit counts attempts, not failures
     expect(statuses[10]).toBe(429);
-    expect((await client(app, '203.0.113.8')('POST', '/join', { json: { code: a.crewCode, device: 'h' } })).status).toBe(200);
+    expect(
+      (await client(app, '203.0.113.8')('POST', '/join', { json: { code: a.crewCode, device: 'h' } })).status,
+    ).toBe(200);
   });
 
   it('the global join limit holds across addresses', async () => {
-    const limited = createApp(db, { clientAddress: testAddress, limits: { joinGlobal: 3 }, logError: () => {} });
+    const limited = createApp(db, {
+      clientAddress: testAddress,
+      limits: { joinGlobal: 3 },
+      logError: () => {},
+    });
     // the global bucket is shared with the other tests of this file: count from what is there now
     const statuses: number[] = [];
     for (let i = 0; i < 3 + 700; i++) {
-      const r = await client(limited, `198.51.100.${i % 250}`)('POST', '/join', { json: { code: '0000000000000000', device: 'g' } });
+      const r = await client(limited, `198.51.100.${i % 250}`)('POST', '/join', {
+        json: { code: '0000000000000000', device: 'g' },
+      });
       statuses.push(r.status);
       if (r.status === 429) break;
     }
@@ -222,9 +299,15 @@ describe.each(backends())('crew server API on $name', (backend) => {
 
   it('tokens and crew codes are stored only as their SHA-256', async () => {
     const { st, a, b, code } = await sharedStudy();
-    const phones = await db.query<{ token_hash: string }>('select token_hash from phones where study_id = $1 order by creator desc', [st.id]);
+    const phones = await db.query<{ token_hash: string }>(
+      'select token_hash from phones where study_id = $1 order by creator desc',
+      [st.id],
+    );
     expect(phones.map((p) => p.token_hash)).toEqual([sha256(a.token), sha256(b.token)]);
-    const codes = await db.query<{ code_hash: string }>('select code_hash from crew_codes where study_id = $1', [st.id]);
+    const codes = await db.query<{ code_hash: string }>(
+      'select code_hash from crew_codes where study_id = $1',
+      [st.id],
+    );
     expect(codes.map((c) => c.code_hash)).toEqual([sha256(code)]);
     const dump = JSON.stringify([
       await db.query('select * from phones where study_id = $1', [st.id]),
@@ -241,11 +324,20 @@ describe.each(backends())('crew server API on $name', (backend) => {
     await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: [e1, e2] } });
     const vA = voidOf(st, e1!, 'phone-A', 3);
     const vB = voidOf(st, e1!, 'phone-B', 1);
-    expect((await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: [vA] } })).status).toBe(200);
-    expect((await request('POST', `/studies/${st.id}/events`, { token: b.token, json: { events: [vB] } })).status).toBe(200);
+    expect(
+      (await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: [vA] } })).status,
+    ).toBe(200);
+    expect(
+      (await request('POST', `/studies/${st.id}/events`, { token: b.token, json: { events: [vB] } })).status,
+    ).toBe(200);
     const pulled = await request('GET', `/studies/${st.id}/events`, { token: b.token });
     const events = pulled.body.events as ObservationRecord[];
-    expect(events.filter((e) => e.voids === e1!.id).map((e) => e.device).sort()).toEqual(['phone-A', 'phone-B']);
+    expect(
+      events
+        .filter((e) => e.voids === e1!.id)
+        .map((e) => e.device)
+        .sort(),
+    ).toEqual(['phone-A', 'phone-B']);
     const { crewView } = await import('../../src/sync/crew-view.ts');
     expect(crewView(st, events).n).toBe(1);
   });
@@ -255,9 +347,15 @@ describe.each(backends())('crew server API on $name', (backend) => {
     const other = await sharedStudy();
     const [e1] = entriesOf(st, 'phone-A', [1]);
     const [o1] = entriesOf(other.st, 'phone-A', [1]);
-    await other.request('POST', `/studies/${other.st.id}/events`, { token: other.a.token, json: { events: [o1] } });
+    await other.request('POST', `/studies/${other.st.id}/events`, {
+      token: other.a.token,
+      json: { events: [o1] },
+    });
     const v1 = voidOf(st, e1!, 'phone-A', 2);
-    expect((await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: [e1, v1] } })).status).toBe(200);
+    expect(
+      (await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: [e1, v1] } }))
+        .status,
+    ).toBe(200);
     const vv = { ...voidOf(st, e1!, 'phone-A', 3), voids: v1.id };
     const r1 = await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: [vv] } });
     expect(r1.body.problems).toEqual([expect.stringMatching(/^events\[0\]\.voids: .* is a void/)]);
@@ -265,7 +363,10 @@ describe.each(backends())('crew server API on $name', (backend) => {
     const r2 = await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: [vo] } });
     expect(r2.body.problems).toEqual([expect.stringMatching(/^events\[0\]\.voids: no event/)]);
     const correction = { ...entriesOf(st, 'phone-A', [1.5], 3)[0]!, corrects: e1!.id };
-    expect((await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: [correction] } })).status).toBe(200);
+    expect(
+      (await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: [correction] } }))
+        .status,
+    ).toBe(200);
   });
 
   it('a phone a week offline pushes 2,000 entries in batches of 200 (one batch sent twice): each stored once', async () => {
@@ -277,10 +378,21 @@ describe.each(backends())('crew server API on $name', (backend) => {
     }));
     let stored = 0;
     for (let i = 0; i < week.length; i += 200) {
-      const r = await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: week.slice(i, i + 200) } });
+      const r = await request('POST', `/studies/${st.id}/events`, {
+        token: a.token,
+        json: { events: week.slice(i, i + 200) },
+      });
       expect(r.status).toBe(200);
       stored += r.body.stored;
-      if (i === 1000) expect((await request('POST', `/studies/${st.id}/events`, { token: a.token, json: { events: week.slice(i, i + 200) } })).body.alreadyPresent).toBe(200);
+      if (i === 1000)
+        expect(
+          (
+            await request('POST', `/studies/${st.id}/events`, {
+              token: a.token,
+              json: { events: week.slice(i, i + 200) },
+            })
+          ).body.alreadyPresent,
+        ).toBe(200);
     }
     expect(stored).toBe(2000);
     expect(await countEvents(st.id)).toBe(2000);

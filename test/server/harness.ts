@@ -7,8 +7,8 @@
  * at the end), so files and runs never see each other's rows.
  */
 import { randomUUID } from 'node:crypto';
-import pg from 'pg';
 import type { Hono } from 'hono';
+import pg from 'pg';
 import type { ObservationRecord, StudyRecord } from '../../src/model/records.ts';
 import { type Db, openPglite, openPostgres } from '../../src/server/db.ts';
 import { migrate } from '../../src/server/migrations.ts';
@@ -60,7 +60,11 @@ export interface Answer<T = unknown> {
 }
 
 /** Requests against an app in process, as from the client address `address`. */
-export function client(app: Hono, address = `10.0.${Math.floor(Math.random() * 250)}.${Math.floor(Math.random() * 250)}`) {
+export function client(
+  app: Hono,
+  address = `10.0.${Math.floor(Math.random() * 250)}.${Math.floor(Math.random() * 250)}`,
+) {
+  // biome-ignore lint/suspicious/noExplicitAny: the answers' shapes are what the assertions check
   return async function request<T = any>(
     method: string,
     path: string,
@@ -72,10 +76,18 @@ export function client(app: Hono, address = `10.0.${Math.floor(Math.random() * 2
     if (options.json !== undefined) body = JSON.stringify(options.json);
     if (options.raw !== undefined) body = options.raw;
     if (body !== undefined) headers['content-type'] = options.type ?? 'application/json';
-    const res = await app.request(`${API_PREFIX}${path}`, { method, headers, ...(body === undefined ? {} : { body }) });
+    const res = await app.request(`${API_PREFIX}${path}`, {
+      method,
+      headers,
+      ...(body === undefined ? {} : { body }),
+    });
     const text = await res.text();
     const type = res.headers.get('content-type') ?? '';
-    return { status: res.status, body: type.includes('json') ? JSON.parse(text) : text, headers: res.headers };
+    return {
+      status: res.status,
+      body: type.includes('json') ? JSON.parse(text) : text,
+      headers: res.headers,
+    };
   };
 }
 
@@ -126,7 +138,12 @@ export function entriesOf(
 }
 
 /** A void of `target` recorded on `device` as its event number `seq`. */
-export function voidOf(study: StudyRecord, target: ObservationRecord, device: string, seq: number): ObservationRecord {
+export function voidOf(
+  study: StudyRecord,
+  target: ObservationRecord,
+  device: string,
+  seq: number,
+): ObservationRecord {
   return {
     id: randomUUID(),
     studyId: study.id,
