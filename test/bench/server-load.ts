@@ -14,7 +14,7 @@
  */
 import { type ChildProcess, spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { cpus, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -221,22 +221,28 @@ async function main(): Promise<void> {
         max: ms(sorted.at(-1)!),
       },
     };
-    writeFileSync(`${flags.out}.json`, `${JSON.stringify(result, null, 2)}\n`);
+    // one file for both backends: this run replaces the earlier run on the same backend
+    let runs: Record<string, typeof result> = {};
+    if (existsSync(`${flags.out}.json`))
+      runs = (JSON.parse(readFileSync(`${flags.out}.json`, 'utf8')) as { runs?: typeof runs }).runs ?? {};
+    runs[backend] = result;
+    writeFileSync(`${flags.out}.json`, `${JSON.stringify({ runs }, null, 2)}\n`);
+    const row = (r: typeof result) =>
+      `| ${r.backend} | ${r.date.slice(0, 10)} | ${r.phones} × ${r.entriesPerPhone}, batches of ${r.batch}, ${r.concurrency} at once | ${r.exactlyOnce ? 'yes' : 'NO'} (${r.stored} stored, ${r.pulledDistinct} distinct pulled) | ${r.pushMs.p50} | ${r.pushMs.p95} | ${r.pushMs.p99} | ${r.pushMs.max} | ${r.entriesPerSecond} |`;
     const md = [
-      `# Crew server load (${backend})`,
+      '# Crew server load benchmark',
       '',
-      `${flags.phones} phones × ${flags.entries} entries in batches of ${flags.batch}, ${flags.concurrency} phones pushing at once, one server process on loopback, ${result.cpus} CPUs, Node ${process.version}, ${result.date.slice(0, 10)}.`,
+      '`npm run bench:server` (PGlite) and `DATABASE_URL=postgres://… npm run bench:server` (PostgreSQL): simulated',
+      'phones push their entries in batches to one server process on loopback (test/bench/server-load.ts).',
+      `Machine: ${result.cpus} CPUs shared with other work, Node ${process.version}. Latency in ms per push request.`,
       '',
-      '| figure | value |',
-      '| --- | --- |',
-      `| every entry stored exactly once | ${exactlyOnce ? 'yes' : 'NO'} (${stored} stored, ${seen.size} distinct pulled, ${missing} missing or repeated) |`,
-      `| pushes | ${latencies.length} |`,
-      `| push latency p50 / p95 / p99 / max | ${result.pushMs.p50} / ${result.pushMs.p95} / ${result.pushMs.p99} / ${result.pushMs.max} ms |`,
-      `| entries per second | ${result.entriesPerSecond} (${result.seconds} s for ${expected}) |`,
+      '| backend | date | load | every entry stored exactly once | p50 | p95 | p99 | max | entries/s |',
+      '| --- | --- | --- | --- | --- | --- | --- | --- | --- |',
+      ...Object.values(runs).map(row),
       '',
     ].join('\n');
     writeFileSync(`${flags.out}.md`, md);
-    console.log(md);
+    console.log(row(result));
     if (!exactlyOnce) process.exitCode = 1;
   } finally {
     child.kill('SIGTERM');
