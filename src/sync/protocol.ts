@@ -22,7 +22,8 @@
  * Refusals answer with a status and an ErrorBody: 400 malformed (problems name the field), 401 no or
  * unknown token, 403 a token of another study or a creator-only request, 404 no such study or code,
  * 409 a conflict (an event id already stored with other content; a study id already shared), 413 body
- * over MAX_BODY_BYTES, 429 too many attempts (Retry-After). A refused request changes nothing.
+ * over MAX_BODY_BYTES, 415 a body not sent as `Content-Type: application/json`, 429 too many attempts
+ * (Retry-After). A refused request changes nothing.
  *
  * Pushing is idempotent: the event id is the key, an event already stored with the same content is
  * counted as already present, and a batch is stored whole or not at all. Pulling pages through the
