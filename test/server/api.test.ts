@@ -57,6 +57,13 @@ describe.each(backends())('crew server API on $name', (backend) => {
       )[0]!.n,
     );
 
+  it('migrations: applied once, a second run (or two at once) applies nothing', async () => {
+    const { migrate } = await import('../../src/server/migrations.ts');
+    expect(await Promise.all([migrate(db), migrate(db)])).toEqual([[], []]);
+    const rows = await db.query<{ version: number }>('select version from schema_migrations');
+    expect(rows.map((r) => Number(r.version))).toEqual([1]);
+  });
+
   it('share, join, push, pull: both phones read every event, in the order stored', async () => {
     const { st, request, a, b } = await sharedStudy();
     const joined = await request('POST', '/join', {
