@@ -415,16 +415,24 @@ describe.each(backends())('crew server API on $name', (backend) => {
   });
 
   it('a study shared twice: 409; unknown routes: JSON 404; security headers on every API answer', async () => {
-    const { st, request } = await sharedStudy();
+    const { st, request, a } = await sharedStudy();
     const again = await request('POST', '/studies', { json: { study: st, device: 'phone-A' } });
     expect(again.status).toBe(409);
     const missing = await request('GET', '/nothing-here');
     expect(missing.status).toBe(404);
     expect(missing.headers.get('content-type')).toMatch(/^application\/json/);
-    for (const r of [again, missing]) {
+    const ok = await request('GET', `/studies/${st.id}`, { token: a.token });
+    expect(ok.status).toBe(200);
+    for (const r of [again, missing, ok]) {
       expect(r.headers.get('content-security-policy')).toBe("default-src 'none'; frame-ancestors 'none'");
       expect(r.headers.get('x-content-type-options')).toBe('nosniff');
       expect(r.headers.get('cache-control')).toBe('no-store');
+      expect(r.headers.get('content-disposition')).toBe('attachment; filename="api.json"');
+      expect(r.headers.get('x-frame-options')).toBe('DENY');
+      expect(r.headers.get('referrer-policy')).toBe('no-referrer');
+      expect(r.headers.get('strict-transport-security')).toMatch(/^max-age=\d+/);
+      expect(r.headers.get('server')).toBeNull();
+      expect(r.headers.get('x-powered-by')).toBeNull();
     }
   });
 });
