@@ -6,7 +6,8 @@
  * Outside references: MIME types per the IANA media type registry (text/html, text/javascript per
  * RFC 9239, application/manifest+json per W3C Web App Manifest); Cache-Control directives RFC 9111 §5.2
  * and `immutable` RFC 8246; X-Content-Type-Options and X-Frame-Options as the Fetch and HTML standards
- * define them; path traversal as OWASP ASVS 4.0.3 V12.3.1.
+ * define them; path traversal as OWASP ASVS 4.0.3 V12.3.1; CORS per the Fetch standard (an origin not
+ * on the list gets no Access-Control-Allow-Origin).
  */
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -80,6 +81,30 @@ describe('the phone app served by the crew server', () => {
     expect(res.headers.get('content-type')).toMatch(/^application\/json/);
     expect(res.headers.get('content-security-policy')).toBe("default-src 'none'; frame-ancestors 'none'");
     expect(res.headers.get('cache-control')).toBe('no-store');
+  });
+
+  it('CORS only for the origins given, exactly (none by default)', async () => {
+    const crossSite = createApp(noDb, { allowOrigins: ['https://app.example.org'], logError: () => {} });
+    const preflight = (origin: string) =>
+      crossSite.request('/api/v1/join', {
+        method: 'OPTIONS',
+        headers: {
+          origin,
+          'access-control-request-method': 'POST',
+          'access-control-request-headers': 'content-type',
+        },
+      });
+    const allowed = await preflight('https://app.example.org');
+    expect(allowed.headers.get('access-control-allow-origin')).toBe('https://app.example.org');
+    expect(
+      (await preflight('https://evil.example.net')).headers.get('access-control-allow-origin'),
+    ).toBeNull();
+    expect((await preflight('null')).headers.get('access-control-allow-origin')).toBeNull();
+    const sameOrigin = await app.request('/api/v1/join', {
+      method: 'OPTIONS',
+      headers: { origin: 'https://app.example.org' },
+    });
+    expect(sameOrigin.headers.get('access-control-allow-origin')).toBeNull();
   });
 
   it('an unexpected failure answers 500 without its cause', async () => {
