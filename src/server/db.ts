@@ -114,6 +114,9 @@ export async function openPostgres(url: string, options: PostgresOptions = {}): 
     await admin.connect();
     try {
       await admin.query(`create schema if not exists ${schema}`);
+    } catch (err) {
+      // two processes creating the schema at the same moment: one wins, the other finds it made
+      if ((err as { code?: string }).code !== '23505') throw err;
     } finally {
       await admin.end();
     }
@@ -132,16 +135,20 @@ export async function openPostgres(url: string, options: PostgresOptions = {}): 
     query: (sql, params) => run(pool, sql, params),
     transaction: async (work) => {
       const client = await pool.connect();
+      let broken: Error | undefined;
       try {
         await client.query('begin');
         const result = await work({ query: (sql, params) => run(client, sql, params) });
         await client.query('commit');
         return result;
       } catch (err) {
-        await client.query('rollback').catch(() => {});
+        await client.query('rollback').catch((lost: Error) => {
+          broken = lost;
+        });
         throw err;
       } finally {
-        client.release();
+        // a connection that could not even roll back is closed, not handed to the next request
+        client.release(broken);
       }
     },
     close: () => pool.end(),

@@ -119,8 +119,13 @@ export async function crew(c: Context, s: StudyContext): Promise<Response> {
       [phone.studyId],
     ),
   ]);
+  // a phone that has just joined may ask before a lagging replica holds the study: read it from the primary
+  const study =
+    studies[0]?.study ??
+    (await s.db.query<{ study: StudyRecord }>('select study from studies where id = $1', [phone.studyId]))[0]!
+      .study;
   const answer: CrewResponse = {
-    study: studies[0]!.study,
+    study,
     phones: phones.map((p) => ({
       phoneId: p.id,
       device: p.device,

@@ -414,6 +414,25 @@ describe.each(backends())('crew server API on $name', (backend) => {
     expect(ids).toEqual(week.map((e) => e.id));
   });
 
+  it('a replica that lags: pulls see nothing yet (cursor unmoved), the crew list falls back, tokens are checked on the primary', async () => {
+    const { st, request, a, b } = await sharedStudy();
+    await request('POST', `/studies/${st.id}/events`, {
+      token: a.token,
+      json: { events: entriesOf(st, 'phone-A', [1, 2]) },
+    });
+    // a replica that has received nothing yet
+    const empty: Db = { ...db, query: async () => [] };
+    const replicated = client(
+      createApp(db, { readDb: empty, clientAddress: testAddress, logError: () => {} }),
+    );
+    const page = await replicated('GET', `/studies/${st.id}/events?after=0`, { token: b.token });
+    expect(page.body).toEqual({ events: [], cursor: '0', more: false });
+    const crew = await replicated('GET', `/studies/${st.id}`, { token: b.token });
+    expect(crew.body.study).toEqual(st);
+    await request('DELETE', `/studies/${st.id}/phones/${b.phoneId}`, { token: a.token });
+    expect((await replicated('GET', `/studies/${st.id}/events`, { token: b.token })).status).toBe(401);
+  });
+
   it('a study shared twice: 409; unknown routes: JSON 404; security headers on every API answer', async () => {
     const { st, request, a } = await sharedStudy();
     const again = await request('POST', '/studies', { json: { study: st, device: 'phone-A' } });
