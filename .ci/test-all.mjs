@@ -34,6 +34,8 @@ rmSync('test-results/e2e.json', { force: true });
 gate('typecheck', 'npm run -s typecheck');
 gate('lint+format', 'npm run -s lint');
 gate('build cli', 'npm run -s build:cli');
+// the crew server (src/server): its tests and the two-phone browser test run the built server
+gate('build server', 'npm run -s build:server');
 
 const unit = run('unit', 'npm run -s test:unit');
 const u = readJson('test-results/unit.json');

@@ -1,6 +1,6 @@
 /**
- * The field screen's crew button: the study's sync state at a glance ("Crew · 3 waiting · last sync
- * 14:05"); one tap opens the crew panel (share, crew code, the crew's pooled verdict). While it is on
+ * The field screen's crew button, in the status row: the study's sync state at a glance ("Crew · 3
+ * waiting"); one tap opens the crew panel (share, crew code, the crew's pooled verdict). While it is on
  * screen the study syncs now and every minute (web/sync/index.ts). The panel's code (the QR encoder, the
  * requests) is loaded on the first tap, so the app shell stays small.
  */
@@ -8,7 +8,7 @@ import type { ComponentType } from 'preact';
 import { useEffect, useState } from 'preact/hooks';
 import { useStore } from '../../state/store.ts';
 import { watchStudy } from '../../sync/index.ts';
-import { clockTime, statusWord, syncStatus } from '../../sync/status.ts';
+import { statusWord, syncStatus } from '../../sync/status.ts';
 
 type PanelProps = { studyId: string; onClose(): void };
 
@@ -17,10 +17,10 @@ export function CrewChip({ studyId }: { studyId: string }) {
   const [Panel, setPanel] = useState<ComponentType<PanelProps> | null>(null);
   const [open, setOpen] = useState(false);
   useEffect(() => watchStudy(studyId), [studyId]);
-  const last =
-    s?.lastSyncAt !== undefined && s.stopped === undefined ? ` · last sync ${clockTime(s.lastSyncAt)}` : '';
+  // short, so that it shares the status row with the position and chart chips: the time of the last
+  // sync is in the panel's status line, one tap away
   return (
-    <div class="crew-row">
+    <>
       <button
         type="button"
         class={`chip crew-chip ${s?.stopped !== undefined ? 'coarse' : ''}`}
@@ -34,9 +34,9 @@ export function CrewChip({ studyId }: { studyId: string }) {
           setOpen(true);
         }}
       >
-        {s ? `Crew · ${statusWord(s)}${last}` : 'Crew'}
+        {s ? `Crew · ${statusWord(s)}` : 'Crew'}
       </button>
       {open && Panel && <Panel studyId={studyId} onClose={() => setOpen(false)} />}
-    </div>
+    </>
   );
 }

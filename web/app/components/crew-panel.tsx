@@ -42,6 +42,10 @@ export function CrewPanel({ studyId, onClose }: { studyId: string; onClose(): vo
     setLink(l ?? null);
     if (l) setView(await crewViewOf(studyId));
   };
+  // opening the panel asks for the crew's latest: a sync now (the minute's tick may be far off)
+  useEffect(() => {
+    void syncStudy(studyId, 'open').catch(() => undefined);
+  }, [studyId]);
   // every finished sync changes the status: read the link and the pooled events again
   useEffect(() => {
     void reread().catch((err) => setMsg({ ok: false, text: (err as Error).message }));

@@ -135,8 +135,8 @@ function Field({ view }: { view: StudyView }) {
           >
             Chart
           </button>
+          <CrewChip studyId={study.id} />
         </div>
-        <CrewChip studyId={study.id} />
         <div class="chart-panel" id="field-chart" data-testid="chart-panel">
           <div class="chart-panel-head">
             <h2>Running interval</h2>
