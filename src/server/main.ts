@@ -11,6 +11,7 @@
  */
 import { existsSync } from 'node:fs';
 import type { AddressInfo } from 'node:net';
+import { parseArgs } from 'node:util';
 import { serve } from '@hono/node-server';
 import { createApp } from './app.ts';
 import { type Db, openPglite, openPostgres } from './db.ts';
@@ -27,44 +28,56 @@ interface Flags {
 
 class FlagError extends Error {}
 
+/** The flags by Node's own parser (strict: an unknown flag or a missing value is refused), then checked. */
 function parseFlags(argv: string[], env: NodeJS.ProcessEnv): Flags {
+  let values: ReturnType<typeof parse>['values'];
+  try {
+    ({ values } = parse(argv));
+  } catch (err) {
+    throw new FlagError(`${(err as Error).message} (see src/server/README.md)`);
+  }
   const flags: Flags = {
     port: 8787,
-    host: '127.0.0.1',
-    data: env.CREW_DATA ?? './crew-data',
+    host: values.host ?? '127.0.0.1',
+    data: values.data ?? env.CREW_DATA ?? './crew-data',
     app: existsSync('dist/index.html') ? 'dist' : undefined,
-    trustProxy: false,
+    trustProxy: values['trust-proxy'] ?? false,
     allowOrigins: [],
   };
-  for (let i = 0; i < argv.length; i++) {
-    const flag = argv[i]!;
-    const value = () => {
-      const v = argv[++i];
-      if (v === undefined || v.startsWith('--')) throw new FlagError(`${flag}: needs a value`);
-      return v;
-    };
-    if (flag === '--port') {
-      const v = value();
-      const port = /^[0-9]{1,5}$/.test(v) ? Number(v) : -1;
-      if (port < 0 || port > 65535) throw new FlagError(`--port: a port number 0–65535, got "${v}"`);
-      flags.port = port;
-    } else if (flag === '--host') flags.host = value();
-    else if (flag === '--data') flags.data = value();
-    else if (flag === '--app') {
-      const dir = value();
-      if (!existsSync(`${dir}/index.html`))
-        throw new FlagError(`--app: no index.html in "${dir}" (run npm run build)`);
-      flags.app = dir;
-    } else if (flag === '--no-app') flags.app = undefined;
-    else if (flag === '--trust-proxy') flags.trustProxy = true;
-    else if (flag === '--allow-origin') {
-      const origin = value();
-      if (!/^https?:\/\/[^/\s]+$/.test(origin))
-        throw new FlagError(`--allow-origin: an origin such as https://app.example.org, got "${origin}"`);
-      flags.allowOrigins.push(origin);
-    } else throw new FlagError(`${flag}: unknown flag (see src/server/README.md)`);
+  if (values.port !== undefined) {
+    const port = /^[0-9]{1,5}$/.test(values.port) ? Number(values.port) : -1;
+    if (port < 0 || port > 65535) throw new FlagError(`--port: a port number 0–65535, got "${values.port}"`);
+    flags.port = port;
+  }
+  if (values.app !== undefined) {
+    if (!existsSync(`${values.app}/index.html`))
+      throw new FlagError(`--app: no index.html in "${values.app}" (run npm run build)`);
+    flags.app = values.app;
+  }
+  if (values['no-app']) flags.app = undefined;
+  for (const origin of values['allow-origin'] ?? []) {
+    if (!/^https?:\/\/[^/\s]+$/.test(origin))
+      throw new FlagError(`--allow-origin: an origin such as https://app.example.org, got "${origin}"`);
+    flags.allowOrigins.push(origin);
   }
   return flags;
+}
+
+function parse(argv: string[]) {
+  return parseArgs({
+    args: argv,
+    strict: true,
+    allowPositionals: false,
+    options: {
+      port: { type: 'string' },
+      host: { type: 'string' },
+      data: { type: 'string' },
+      app: { type: 'string' },
+      'no-app': { type: 'boolean' },
+      'trust-proxy': { type: 'boolean' },
+      'allow-origin': { type: 'string', multiple: true },
+    },
+  });
 }
 
 async function main(): Promise<void> {

@@ -30,8 +30,9 @@
  * study's events in the order the server stored them, after an opaque cursor; the pooled order used for
  * figures is pooled-order.ts (src/bundle), never the server's.
  */
-import type { ObservationRecord, StudyRecord } from '../model/records.ts';
+
 import { eventProblems, studyProblems } from '../bundle/validate.ts';
+import type { ObservationRecord, StudyRecord } from '../model/records.ts';
 
 export const API_PREFIX = '/api/v1';
 /** Largest request body the server reads (bytes). A batch of MAX_BATCH_EVENTS entries with notes fits. */

@@ -9,9 +9,9 @@
  * test, DATABASE_SCHEMA). Reference for the kill: POSIX signal semantics (SIGKILL cannot be caught, so
  * the process gets no chance to finish or clean up).
  */
-import { type ChildProcess, execFileSync, spawn } from 'node:child_process';
+import { type ChildProcess, spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { request as httpRequest } from 'node:http';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -24,9 +24,11 @@ import { databaseUrl, dropSchema, entriesOf, newStudy } from './harness.ts';
 const root = join(import.meta.dirname, '..', '..');
 const script = join(root, 'dist-server', 'server.mjs');
 
+// dist-server/ is built once for every test file by test/global-setup.ts
 beforeAll(() => {
-  execFileSync('npx', ['vite', 'build', '--mode', 'server'], { cwd: root, stdio: 'ignore' });
-}, 120_000);
+  if (!existsSync(script))
+    throw new Error('dist-server/server.mjs is missing (test/global-setup.ts builds it)');
+});
 
 interface Place {
   env: NodeJS.ProcessEnv;
