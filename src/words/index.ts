@@ -1,10 +1,12 @@
 /** The one module of words: see README.md. */
 export { CAUTIONS } from './cautions.ts';
+export { clockTime, crewCountWords, phoneWords, type SyncStateWords, syncLine, syncWord } from './crew.ts';
 export { entryWords } from './entry.ts';
 export {
   checkedLevelWords,
   estimateWords,
   intervalWords,
+  methodChoiceWords,
   methodWords,
   type Shown,
   shownNumbers,

@@ -70,7 +70,8 @@ describe('crew panel', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Sync now' }));
     await waitFor(() => expect(screen.getByTestId('crew-n').textContent).toBe('n 5 from 2 phones'));
     expect(screen.getByTestId('crew-sync-status').textContent).toMatch(/^synced · last sync \d\d:\d\d$/);
-    expect(screen.getByRole('button', { name: /^Crew · synced · last sync/ })).toBeTruthy();
+    // the button is short (it shares the status row); the time of the last sync is in the panel's line
+    expect(screen.getByRole('button', { name: 'Crew · synced' })).toBeTruthy();
     const expected = crewView((await getStudy(s.id))!, [
       ...(await listObservations(s.id)),
       ...(await listCrewEvents(s.id)),

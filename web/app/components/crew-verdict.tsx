@@ -4,13 +4,16 @@
  * crew's strata from the pooled assessment. Worded with the shared words module (src/words).
  */
 import type { CrewView } from '../../core.ts';
-import { decisionWords, estimateWords, intervalWords, moreWords } from '../../core-light.ts';
+import {
+  crewCountWords,
+  decisionWords,
+  estimateWords,
+  intervalWords,
+  moreWords,
+  phoneWords,
+} from '../../core-light.ts';
 import type { StoredStudy } from '../../storage/schema.ts';
 import { studySep } from '../number-style.ts';
-
-function phoneName(device: string, own: string): string {
-  return device === own ? 'This phone' : `Phone ${device.slice(0, 8)}`;
-}
 
 export function CrewVerdict(props: { view: CrewView; study: StoredStudy; ownDevice: string }) {
   const { view, study, ownDevice } = props;
@@ -33,9 +36,7 @@ export function CrewVerdict(props: { view: CrewView; study: StoredStudy; ownDevi
         <>
           <p class="word">
             <strong data-testid="crew-verdict">{a.verdict.status}</strong> ·{' '}
-            <span data-testid="crew-n">
-              n {view.n} from {phones.length} {phones.length === 1 ? 'phone' : 'phones'}
-            </span>
+            <span data-testid="crew-n">{crewCountWords(view.n, phones.length)}</span>
           </p>
           <p data-testid="crew-estimate">
             {estimateWords(a, setup, sep)} · interval {intervalWords(a, setup, sep)}
@@ -48,7 +49,7 @@ export function CrewVerdict(props: { view: CrewView; study: StoredStudy; ownDevi
         <ul class="crew-phones" aria-label="Entries per phone">
           {phones.map((p) => (
             <li key={p.device} data-testid="crew-phone">
-              {phoneName(p.device, ownDevice)}: {p.counted} counted
+              {phoneWords(p.device, ownDevice)}: {p.counted} counted
               {p.entries > p.counted ? ` (${p.entries - p.counted} withdrawn)` : ''}
             </li>
           ))}
