@@ -8,7 +8,7 @@
  * each piece an estimator uses lives in its own file with its source.
  */
 import type { Interval } from '../model/interval.ts';
-import type { Sided, Target, Verdict } from '../model/types.ts';
+import type { MethodChoice, Sided, Target, Verdict } from '../model/types.ts';
 
 /** Why an estimator refuses a verdict for now (a `keep going` reason of the Verdict union). */
 export type GuardReason = Extract<Verdict, { status: 'keep going' }>['reason'];
@@ -29,7 +29,7 @@ export interface Projection {
 }
 
 /** The figures shown with an assessment (Assessment.details). */
-export type Details = Record<string, number | string | boolean | null>;
+export type Details = Record<string, number | string | boolean | null | MethodChoice>;
 
 export interface Estimator {
   /** Published name of the method actually used (CLI `method` field). */

@@ -16,8 +16,8 @@
  * (the pass/fail estimator's guard), while a limit may still be decided (zero-acceptance, 1 − α^(1/n)).
  */
 import type { Interval } from '../model/interval.ts';
-import { SETUP_DEFAULTS } from '../model/setup-lists.ts';
-import type { AnalysisSetup, Assessment, More, Verdict } from '../model/types.ts';
+import { METHODS_BY_KIND, SETUP_DEFAULTS } from '../model/setup-lists.ts';
+import type { AnalysisSetup, Assessment, MethodName, More, Verdict } from '../model/types.ts';
 import { hotSpotDetection } from '../stats/hot-spot-detection.ts';
 import { decide, HOT_SPOT_DETECTION, minimumBeforeVerdict, type RuleContext } from '../stop/index.ts';
 import type { SpreadJump } from './entries.ts';
@@ -65,6 +65,13 @@ function finiteOrNull(x: number | undefined): number | null {
 
 function keepGoing(reason: Extract<Verdict, { status: 'keep going' }>['reason'], message: string): Verdict {
   return { status: 'keep going', reason, message };
+}
+
+/** The measurement method the estimator used when the setup left the choice to the data, else undefined. */
+export function chosenMethod(setup: AnalysisSetup, used: string): MethodName | undefined {
+  if (setup.kind !== 'measurement' || (setup.method !== undefined && setup.method !== 'auto'))
+    return undefined;
+  return METHODS_BY_KIND.measurement.includes(used as MethodName) ? (used as MethodName) : undefined;
 }
 
 /** Why no verdict yet: the minimum, and the hot-spot share when that is what sets it. */
@@ -138,6 +145,11 @@ export function runPipeline(
     };
     if (options.projection === false) ctx.verdictOnly = true;
     let ruleSetup: AnalysisSetup = { ...setup, sided };
+    // the standard rule's correction and strict's plan depend on the interval family actually used: the one
+    // the data chose (method auto). The limit decision keeps its own family (the setup's), so that its lines
+    // do not move with the choice.
+    const chosen = chosenMethod(setup, estimator.method);
+    if (chosen !== undefined && setup.rule !== 'sprt') ruleSetup.method = chosen;
     if (setup.rule === 'sprt' && estimator.sprtApplies === false) {
       ruleSetup = { ...ruleSetup, rule: 'naive' };
       warnings.push(

@@ -23,6 +23,7 @@ import type { AnalysisSetup, Sided, Target, VerdictStatus } from '../model/types
 import { garwoodBracket } from '../stats/garwood-poisson-bracket.ts';
 import { landInnerBounds } from '../stats/land-inner-bounds.ts';
 import { decide, minimumBeforeVerdict, type RuleContext } from '../stop/index.ts';
+import { chosenMethod } from './pipeline.ts';
 import { RunningAssessment } from './running.ts';
 import { kindEstimator } from './subject.ts';
 import { checkTarget, effectiveSided } from './target.ts';
@@ -54,7 +55,7 @@ export function replaySequence(
   const summary = state.summary;
   const target = setup.target;
   const min = minimumBeforeVerdict(setup);
-  const sidedSetups: Partial<Record<Sided, AnalysisSetup>> = {};
+  const sidedSetups: Record<string, AnalysisSetup> = {};
   let stoppedAt: number | null = null;
   // one context for the whole sequence, updated per entry (no per-entry closures or objects)
   let sided: Sided = setup.sided;
@@ -120,10 +121,14 @@ export function replaySequence(
       continue;
     }
     sided = effectiveSided(setup, estimator.estimate);
-    let s = sidedSetups[sided];
+    // as the pipeline does: the rule sees the method the data chose (one setup object per side and method)
+    const chosen = setup.rule === 'sprt' ? undefined : chosenMethod(setup, estimator.method);
+    const setupKey = chosen === undefined ? sided : `${sided}|${chosen}`;
+    let s = sidedSetups[setupKey];
     if (s === undefined) {
-      s = sided === setup.sided ? setup : { ...setup, sided };
-      sidedSetups[sided] = s;
+      s = sided === setup.sided && chosen === undefined ? setup : { ...setup, sided };
+      if (chosen !== undefined) s.method = chosen;
+      sidedSetups[setupKey] = s;
     }
     ctx.n = n;
     ctx.intervalAt = estimator.intervalAt;

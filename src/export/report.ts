@@ -30,6 +30,7 @@ import {
   intervalWords,
   kindWords,
   levelWords,
+  methodChoiceWords,
   methodWords,
   minimumWords,
   moreWords,
@@ -209,6 +210,7 @@ export async function reportHtml(bundle: Bundle, options: ReportOptions): Promis
   const method = [
     `The estimate is ${esc(estimatorWords(a, setup))}.`,
     `The interval is ${esc(methodWords(a, sep))}, reported as a ${sidedWords(a.sided)} at ${esc(levelWords(a.level, sep))}.`,
+    esc(methodChoiceWords(a) ?? ''),
     esc(checkedLevelWords(a, setup, sep) ?? ''),
     `The rule's own account: ${esc(a.verdict.message)}`,
     `Whether there is enough was decided with ${esc(ruleExplained(setup.rule))}.`,

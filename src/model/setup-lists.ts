@@ -19,7 +19,7 @@ export const DATA_KINDS: readonly DataKind[] = ['measurement', 'count', 'pass-fa
 
 /** Interval methods of each data kind by their published names; the first is not always the default. */
 export const METHODS_BY_KIND: Readonly<Record<DataKind, readonly MethodName[]>> = {
-  measurement: ['t', 'cox', 'land', 'chebyshev'] satisfies MeasurementMethod[],
+  measurement: ['auto', 't', 'johnson-t', 'gamma', 'cox', 'land', 'chebyshev'] satisfies MeasurementMethod[],
   count: ['t', 'poisson-exact', 'quasi-poisson'] satisfies CountMethod[],
   'pass-fail': [
     'wilson',

@@ -12,7 +12,8 @@ export type DataKind = 'measurement' | 'count' | 'pass-fail';
 export type Sided = 'two' | 'upper' | 'lower';
 
 /** Interval methods by their published names (CLI `--method`). */
-export type MeasurementMethod = 't' | 'cox' | 'land' | 'chebyshev';
+/** `auto` (the default): the interval is chosen from the data (src/assess/method-choice.ts). */
+export type MeasurementMethod = 'auto' | 't' | 'johnson-t' | 'gamma' | 'cox' | 'land' | 'chebyshev';
 export type CountMethod = 't' | 'poisson-exact' | 'quasi-poisson';
 export type PassFailMethod = 'wilson' | 'wilson-cc' | 'jeffreys' | 'clopper-pearson' | 'agresti-coull';
 export type MethodName = MeasurementMethod | CountMethod | PassFailMethod;
@@ -142,6 +143,13 @@ export interface More {
   atLeast?: boolean;
 }
 
+/** Which interval the data chose (method `auto`), why, and the figures of the criterion. */
+export interface MethodChoice {
+  method: MethodName;
+  reason: string;
+  criterion: Record<string, number | null>;
+}
+
 /** The result of assessing a study's observations. Numbers are unrounded. */
 export interface Assessment {
   kind: DataKind;
@@ -157,7 +165,7 @@ export interface Assessment {
   verdict: Verdict;
   more: More | null;
   /** Extra figures the UI may show (sd, dispersion index, densities, relative precision…). */
-  details: Record<string, number | string | boolean | null>;
+  details: Record<string, number | string | boolean | null | MethodChoice>;
   /** Plain-language warnings for this regime (e.g. heavy skew, many non-detects). */
   warnings: string[];
 }

@@ -7,7 +7,10 @@
  * backwards (Chan TF, Golub GH, LeVeque RJ (1983) Algorithms for computing the sample variance: analysis
  * and recommendations, The American Statistician 37:242–247).
  * Preconditions: finite numbers; `remove` only a number that was added.
- * Returns: `n`, `mean`, `m2` (sum of squared deviations from the mean; the sample variance is m2/(n − 1)).
+ * Returns: `n`, `mean`, `m2` (sum of squared deviations from the mean; the sample variance is m2/(n − 1)),
+ * `m3` (sum of cubed deviations, for the skewness; updated as in Pébay P (2008) Formulas for robust,
+ * one-pass parallel computation of covariances and arbitrary-order statistical moments, Sandia report
+ * SAND2008-6212, eq. 2.1 with one new value: M3 += δ³(n−1)(n−2)/n² − 3δ·M2/n, with the old M2).
  * Validity: removal loses a little precision after very many add/remove cycles (relative ~1e-12 per
  * cycle); `m2` is kept ≥ 0, and `settle` clears the residue when every number left is the same.
  * @example const m = new RunningMoments(); m.add(2); m.add(4); m.mean // 3, m.m2 // 2
@@ -16,12 +19,16 @@ export class RunningMoments {
   n = 0;
   mean = 0;
   m2 = 0;
+  m3 = 0;
 
   add(x: number): void {
-    this.n++;
+    const n = ++this.n;
     const d = x - this.mean;
-    this.mean += d / this.n;
-    this.m2 += d * (x - this.mean);
+    const dn = d / n;
+    const term = d * dn * (n - 1);
+    this.mean += dn;
+    this.m3 += term * dn * (n - 2) - 3 * dn * this.m2;
+    this.m2 += term;
   }
 
   remove(x: number): void {
@@ -29,11 +36,17 @@ export class RunningMoments {
       this.n = 0;
       this.mean = 0;
       this.m2 = 0;
+      this.m3 = 0;
       return;
     }
+    // the add above run backwards: δ and M2 of the state before x came
+    const n = this.n;
     const old = this.mean;
-    this.mean = (this.n * old - x) / (this.n - 1);
-    this.m2 = Math.max(0, this.m2 - (x - old) * (x - this.mean));
+    this.mean = (n * old - x) / (n - 1);
+    const d = x - this.mean;
+    const dn = d / n;
+    this.m2 = Math.max(0, this.m2 - d * dn * (n - 1));
+    this.m3 -= d * dn * (n - 1) * dn * (n - 2) - 3 * dn * this.m2;
     this.n--;
   }
 
@@ -48,5 +61,6 @@ export class RunningMoments {
   settle(value: number): void {
     this.mean = value;
     this.m2 = 0;
+    this.m3 = 0;
   }
 }

@@ -17,6 +17,11 @@
 import type { Point } from '../model/types.ts';
 import { RunningMoments } from './running-moments.ts';
 
+function momentSkewness(n: number, m2: number, m3: number): number | null {
+  if (n < 3 || !(m2 > 0)) return null;
+  return (Math.sqrt(n) * m3) / m2 ** 1.5;
+}
+
 export class RunningSummary {
   /** Moments of the uncensored values, and of ln(x) over the positive ones. */
   private readonly raw = new RunningMoments();
@@ -40,6 +45,10 @@ export class RunningSummary {
   get m2(): number {
     return this.raw.m2;
   }
+  /** Sum of cubed deviations from the mean (running-moments.ts). */
+  get m3(): number {
+    return this.raw.m3;
+  }
   /** Number of values > 0 (the log moments run over these). */
   get positive(): number {
     return this.log.n;
@@ -60,6 +69,17 @@ export class RunningSummary {
   }
   get sd(): number {
     return Math.sqrt(this.variance);
+  }
+  /**
+   * Sample skewness √b₁ = √n·M3/M2^{3/2} of the values (the moment ratio D'Agostino's test uses); null below
+   * three values or without spread.
+   */
+  get skewness(): number | null {
+    return momentSkewness(this.raw.n, this.raw.m2, this.raw.m3);
+  }
+  /** The same of ln(x) over the positive values. */
+  get logSkewness(): number | null {
+    return momentSkewness(this.log.n, this.log.m2, this.log.m3);
   }
   /** Sample SD of ln(x) over the positive values; 0 when fewer than 2. */
   get logSd(): number {

@@ -29,14 +29,9 @@ export function ruleWarnings(setup: AnalysisSetup): string[] {
     w.push(
       'Very skewed values (spread about twice the mean) with a loose target: when only about 25 values are needed, the interval at the stop held the mean in about 93.7 % of simulated studies instead of 95 %.',
     );
-  if (
-    kind === 'measurement' &&
-    (rule === 'standard' || rule === 'naive') &&
-    method !== 'cox' &&
-    method !== 'land'
-  )
+  if (kind === 'measurement' && (rule === 'standard' || rule === 'naive') && method === 't')
     w.push(
-      'If the values are skewed (most small, a few large — typical of concentrations), choose the log-scale (Cox) method: on the raw scale the stopped interval covers the mean only about 80 % of the time when the spread is as large as the mean twice over (CV 2).',
+      'Student t is fixed for this study. If the values are skewed (most small, a few large — typical of concentrations), let the data choose the interval (automatic): on the raw scale the stopped interval covers the mean only about 80 % of the time when the spread is as large as the mean twice over (CV 2).',
     );
   if (kind === 'count' && (rule === 'standard' || rule === 'naive')) {
     const k = setup.planning?.negBinomialK;

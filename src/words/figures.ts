@@ -69,6 +69,16 @@ export function methodWords(a: Assessment, sep = '.'): string {
 }
 
 /**
+ * Why this interval: the data's own choice (details.methodChoice, src/assess/method-choice.ts) in one
+ * sentence, the same on the screen and in the report; null when the study named its method.
+ */
+export function methodChoiceWords(a: Assessment): string | null {
+  const c = a.details.methodChoice;
+  if (typeof c !== 'object' || c === null) return null;
+  return `Interval chosen from the data: ${c.reason}.`;
+}
+
+/**
  * The confidence the crew chose is the claim; when the stopping rule checks a wider interval (it looks after
  * every entry, and a rule that looks that often must check wider to keep its promise), say so and why.
  * Null when the interval shown is at the chosen level.

@@ -1,21 +1,28 @@
 /**
- * Measurements (a number with a unit): Student t by default, or the modified Cox, Land or Chebyshev
- * methods on request. Glue over the method files; see each for its source.
+ * Measurements (a number with a unit): by default the interval the data choose (method-choice.ts: Student t,
+ * Johnson's modified t, the gamma-based interval or the modified Cox interval), or the method the study names
+ * (those, Land or Chebyshev). Glue over the method files; see each for its source.
  */
-import type { AnalysisSetup, MeasurementMethod, Sided, Target } from '../../model/types.ts';
+import type { AnalysisSetup, MeasurementMethod, MethodChoice, Sided, Target } from '../../model/types.ts';
 import { sigmaQuantile as sigmaQ } from '../../plan/chi-square-sigma-limits.ts';
 import { logScaleRelativeSampleSize } from '../../plan/log-scale-relative-sample-size.ts';
 import { projectMeasurement } from '../../plan/measurement-projection.ts';
 import { chebyshevBound } from '../../stats/chebyshev-bound.ts';
+import { gammaMeanInterval } from '../../stats/gamma-mean-interval.ts';
+import { johnsonTInterval } from '../../stats/johnson-t-interval.ts';
 import { landInterval } from '../../stats/land-interval.ts';
 import { modifiedCoxInterval } from '../../stats/modified-cox-interval.ts';
 import type { RunningSummary } from '../../stats/running-summary.ts';
 import { studentTInterval } from '../../stats/student-t-interval.ts';
 import type { Details, Estimator, Projection } from '../estimator.ts';
 import { oneValueGuard, quantileProbability, sidedWords } from '../estimator.ts';
+import { chooseMeasurementMethod } from '../method-choice.ts';
 
 const LABELS: Record<MeasurementMethod, string> = {
+  auto: 'chosen from the data',
   t: 'Student t',
+  'johnson-t': 'Johnson’s modified t (skewness-adjusted)',
+  gamma: 'gamma-based (Grice & Bain 1980)',
   cox: 'modified Cox (Olsson 2005, log scale, t quantile)',
   land: "Land's exact method (log scale)",
   chebyshev: 'Chebyshev (mean and SD)',
@@ -26,16 +33,23 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
   const mean = summary.mean;
   const sd = summary.sd;
   const population = setup.population;
-  const requested = (setup.method ?? 't') as MeasurementMethod;
+  const requested = (setup.method ?? 'auto') as MeasurementMethod;
   const warnings: string[] = [];
-  let method: MeasurementMethod = requested;
-  const logScale = requested === 'cox' || requested === 'land';
-  if (logScale && summary.positive < n) {
+  // the data's own choice; with a method named in the setup it is still worked out (O(1)) so that a named
+  // log-scale method on gamma-shaped data can be warned about
+  const choice: MethodChoice = chooseMeasurementMethod(summary);
+  let method = (requested === 'auto' ? choice.method : requested) as Exclude<MeasurementMethod, 'auto'>;
+  const positiveOnly = method === 'cox' || method === 'land' || method === 'gamma';
+  if (positiveOnly && summary.positive < n) {
     warnings.push(
-      `The ${LABELS[requested]} needs every value above zero; ${n - summary.positive} value(s) are zero or negative, so Student t is used instead.`,
+      `The ${LABELS[method]} needs every value above zero; ${n - summary.positive} value(s) are zero or negative, so Student t is used instead.`,
     );
     method = 't';
   }
+  if (requested !== 'auto' && (requested === 'cox' || requested === 'land') && choice.method === 'gamma')
+    warnings.push(
+      'The values look gamma-shaped (their logarithms are skewed to the left), not lognormal: a log-scale method overestimates the mean of such data and its interval may miss it. Let the data choose the method (automatic) or choose the gamma-based interval.',
+    );
   if ((method === 'cox' || method === 'land') && population !== undefined)
     warnings.push('The log-scale methods ignore the population size (no finite population correction).');
   const logStats = { n, logMean: summary.logMean, logSd: summary.logSd };
@@ -54,11 +68,12 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
       details.logSd = logStats.logSd;
     }
     if (population !== undefined) details.population = population;
+    if (requested === 'auto') details.methodChoice = { ...choice, method };
     return details;
   };
-  if (n >= 2 && mean > 0 && sd / mean > 1 && method === 't')
+  if (requested === 't' && choice.method !== 't')
     warnings.push(
-      'The data are strongly skewed (CV above 1): the Student t interval may be too narrow; consider the modified Cox or Land method for positive data.',
+      `Student t was chosen for this study, but the data suggest another interval (${LABELS[choice.method as MeasurementMethod]}: ${choice.reason}); on skewed data the Student t interval may be too narrow. Let the data choose the method (automatic).`,
     );
 
   let estimate: number | null = n >= 1 ? mean : null;
@@ -69,9 +84,22 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
     n < 2
       ? null
       : (level: number, sided: Sided) => {
-          switch (method) {
+          // the skew-aware intervals need spread (and the gamma shape four values): Student t until then
+          const m =
+            (method === 'gamma' && (n < 4 || !(summary.logSd > 0))) || (method === 'johnson-t' && !(sd > 0))
+              ? 't'
+              : method;
+          switch (m) {
             case 't': {
               const r = studentTInterval({ n, mean, sd }, level, sided, population);
+              return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: r.se };
+            }
+            case 'johnson-t': {
+              const r = johnsonTInterval({ n, mean, sd, m3: summary.m3 }, level, sided, population);
+              return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: r.se };
+            }
+            case 'gamma': {
+              const r = gammaMeanInterval({ n, mean, logMean: summary.logMean }, level, sided);
               return { estimate: r.estimate, lower: r.lower, upper: r.upper, se: r.se };
             }
             case 'chebyshev': {

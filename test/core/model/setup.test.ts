@@ -67,12 +67,14 @@ describe('a valid setup', () => {
     expect(() => assertSetup(rest)).not.toThrow();
   });
   it('the methods are the published interval names of each data kind', () => {
-    // Student t; modified Cox (Olsson 2005); Land 1971; Chebyshev; Poisson exact (Garwood 1936);
+    // auto = chosen from the data (src/assess/method-choice.ts); Student t; Johnson's modified t (Johnson 1978,
+    // JASA 73:536); gamma-based (Grice & Bain 1980, JASA 75:929); modified Cox (Olsson 2005); Land 1971;
+    // Chebyshev; Poisson exact (Garwood 1936);
     // quasi-Poisson (McCullagh & Nelder 1989); Wilson 1927 with and without continuity correction
     // (Newcombe 1998); Jeffreys (Brown, Cai & DasGupta 2001); Clopper & Pearson 1934; Agresti & Coull 1998
     // [read]
     expect(METHODS_BY_KIND).toEqual({
-      measurement: ['t', 'cox', 'land', 'chebyshev'],
+      measurement: ['auto', 't', 'johnson-t', 'gamma', 'cox', 'land', 'chebyshev'],
       count: ['t', 'poisson-exact', 'quasi-poisson'],
       'pass-fail': ['wilson', 'wilson-cc', 'jeffreys', 'clopper-pearson', 'agresti-coull'],
     });

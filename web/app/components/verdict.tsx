@@ -9,6 +9,7 @@ import {
   checkedLevelWords,
   decisionWords,
   doneWords,
+  methodChoiceWords,
   methodWords,
   moreWords,
   ruleWords,
@@ -41,6 +42,7 @@ export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs:
   const s = shownNumbers(a, study.setup, sep);
   const done = doneWords(a, sep);
   const unseen = unseenWords(a, sep);
+  const choice = methodChoiceWords(a);
   const more = moreText(a, props.paceMs);
   const decision = decisionWords(a, study.setup, sep);
   const checked = checkedLevelWords(a, study.setup, sep);
@@ -90,6 +92,7 @@ export function VerdictPanel(props: { a: Assessment; study: StoredStudy; paceMs:
         <p>
           {s.interval ? `Interval: ${shortMethod(a, sep)}.` : 'No interval yet (needs at least 2 entries).'}
         </p>
+        {choice && <p data-testid="method-choice">{choice}</p>}
         {checked && <p data-testid="checked-level">{checked}</p>}
         {unseen && <p data-testid="unseen">{unseen}</p>}
         <p>

@@ -1,6 +1,6 @@
 /**
- * The New study form's further sections: the interval method of measurements (the log scale the rule's
- * advice recommends for skewed values), Iwao's coefficients for counts (the advice names them beside
+ * The New study form's further sections: the interval method of measurements (chosen from the data unless
+ * the crew names one), Iwao's coefficients for counts (the advice names them beside
  * Taylor's), what the exports need (for counts the scientific name and how the plots were counted, which
  * Darwin Core requires), the other pass/fail result in the crew's words, how numbers are written, and the
  * plausibility settings (expected range, position accuracy).
@@ -64,11 +64,21 @@ export function KindExtras({ f, set, text, errors }: Props) {
         set={set}
         error={errors.method}
         options={[
-          ['', 'Ordinary mean (Student t)', 'For values that spread evenly around the mean.'],
+          [
+            '',
+            'Chosen from the data (recommended)',
+            'The app picks the interval that fits the values so far — Student t, a skewness-adjusted t, gamma-based or log scale — and says which and why.',
+          ],
+          ['t', 'Ordinary mean (Student t)', 'For values that spread evenly around the mean.'],
+          [
+            'gamma',
+            'Gamma-based, for skewed values',
+            'Skewed values whose logarithms are skewed too (gamma-shaped). Values must be above zero.',
+          ],
           [
             'cox',
-            'Log scale, for skewed values (modified Cox)',
-            'Most values small, a few large — typical of concentrations. Values must be above zero.',
+            'Log scale, for lognormal values (modified Cox)',
+            'Most values small, a few large, with logarithms that spread evenly. Values must be above zero.',
           ],
         ]}
       />

@@ -47,8 +47,8 @@ export interface Form {
   strataCosts: string;
   /** Planning CV for the limit decision's figures on measurements (setup screen only, not stored). */
   planningCv: string;
-  /** Interval method of measurements: '' leaves the core's default (Student t). */
-  method: '' | 't' | 'cox';
+  /** Interval method of measurements: '' leaves the choice to the data (the core's default, auto). */
+  method: '' | 't' | 'gamma' | 'cox';
   iwaoAlpha: string;
   iwaoBeta: string;
   taxon: string;
@@ -149,7 +149,7 @@ export function fromStudy(s: StoredStudy, mode: 'duplicate' | 'change'): Form {
     taylorB: str(st.planning?.taylorB),
     strata: st.strata ? formatStrata(st.strata).strata : '',
     strataCosts: st.strata ? (formatStrata(st.strata).costs ?? '') : '',
-    method: st.method === 't' || st.method === 'cox' ? st.method : '',
+    method: st.method === 't' || st.method === 'gamma' || st.method === 'cox' ? st.method : '',
     iwaoAlpha: str(st.planning?.iwaoAlpha),
     iwaoBeta: str(st.planning?.iwaoBeta),
     taxon: st.taxon ?? '',

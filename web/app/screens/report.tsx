@@ -9,6 +9,7 @@ import {
   intervalWords,
   kindWords,
   levelWords,
+  methodChoiceWords,
   methodWords,
   minimumWords,
   ruleWords,
@@ -99,7 +100,7 @@ function Report({ view }: { view: StudyView }) {
           {a.n} entries that count (voided entries are left out). The target was {targetWords(t, setup, sep)},
           at {levelWords(setup.level, sep)} confidence, with the {ruleWords(setup.rule)} stopping rule; no
           verdict other than “keep going” is given before {minimumWords(a, setup, sep)} or while the data have
-          no spread. {unseenWords(a, sep)} Current verdict: {a.verdict.status} —{' '}
+          no spread. {methodChoiceWords(a)} {unseenWords(a, sep)} Current verdict: {a.verdict.status} —{' '}
           {decisionWords(a, setup, sep)} ({a.verdict.message})
         </p>
         {a.warnings.length > 0 && (
