@@ -69,6 +69,13 @@ export const MIGRATIONS: readonly Migration[] = [
       );
     `,
   },
+  {
+    version: 2,
+    name: "studies remember the hash of the sharing phone's share key (a lost answer can be asked for again)",
+    sql: `
+      alter table studies add column share_key_hash text;
+    `,
+  },
 ];
 
 /** Any constant shared by every server process: the lock's identity. */

@@ -56,6 +56,31 @@ async function addPhone(tx: Queryable, studyId: string, device: string, creator:
   return { token, phoneId };
 }
 
+/**
+ * A share of a study already shared: the same phone asking again with the same share key (its answer was
+ * lost on the way) gets a new token and a new crew code, and the ones it never received stop working;
+ * anyone else is refused. The key is compared by its hash, as tokens are.
+ */
+async function shareAgain(
+  tx: Queryable,
+  studyId: string,
+  req: ShareRequest,
+  keyHash: string,
+): Promise<ShareResponse> {
+  const rows = await tx.query<{ share_key_hash: string | null; phone: string; device: string }>(
+    `select s.share_key_hash, p.id::text as phone, p.device from studies s
+     join phones p on p.study_id = s.id and p.creator and not p.revoked where s.id = $1 for update`,
+    [studyId],
+  );
+  const creator = rows[0];
+  if (creator === undefined || creator.share_key_hash !== keyHash || creator.device !== req.device)
+    throw new HttpError(409, `study ${studyId} is already shared; join it with its crew code`);
+  const token = newToken();
+  await tx.query('update phones set token_hash = $1 where id = $2', [sha256(token), creator.phone]);
+  const crewCode = await issueCode(tx, studyId);
+  return { studyId, crewCode, token, phoneId: creator.phone };
+}
+
 /** POST /studies */
 export async function share(c: Context, s: StudyContext): Promise<Response> {
   await countAttempt(s.db, `share:${s.clientAddress(c)}`, s.limits.sharePerAddress);
@@ -64,13 +89,14 @@ export async function share(c: Context, s: StudyContext): Promise<Response> {
   if (problems.length > 0) throw new HttpError(400, 'the study cannot be shared', problems);
   const req = body as ShareRequest;
   const study = cleanStudy(req.study);
+  const keyHash = sha256(req.shareKey);
   const answer = await s.db.transaction(async (tx): Promise<ShareResponse> => {
     const inserted = await tx.query(
-      'insert into studies (id, study) values ($1, $2::jsonb) on conflict (id) do nothing returning id',
-      [study.id, JSON.stringify(study)],
+      `insert into studies (id, study, share_key_hash) values ($1, $2::jsonb, $3)
+       on conflict (id) do nothing returning id`,
+      [study.id, JSON.stringify(study), keyHash],
     );
-    if (inserted.length === 0)
-      throw new HttpError(409, `study ${study.id} is already shared; join it with its crew code`);
+    if (inserted.length === 0) return shareAgain(tx, study.id, req, keyHash);
     const crewCode = await issueCode(tx, study.id);
     const { token, phoneId } = await addPhone(tx, study.id, req.device, true);
     return { studyId: study.id, crewCode, token, phoneId };

@@ -21,7 +21,8 @@
  * A phone token is sent as `Authorization: Bearer <token>` (RFC 6750) and opens exactly one study.
  * Refusals answer with a status and an ErrorBody: 400 malformed (problems name the field), 401 no or
  * unknown token, 403 a token of another study or a creator-only request, 404 no such study or code,
- * 409 a conflict (an event id already stored with other content; a study id already shared), 413 body
+ * 409 a conflict (an event id already stored with other content; a study id already shared under another
+ * share key), 413 body
  * over MAX_BODY_BYTES, 415 a body not sent as `Content-Type: application/json`, 429 too many attempts
  * (Retry-After). A refused request changes nothing.
  *
@@ -48,6 +49,13 @@ export interface ShareRequest {
   study: StudyRecord;
   /** The sharing phone's device id (its events carry it). */
   device: string;
+  /**
+   * 32 random bytes (base64url, 43 characters) the sharing phone chose and kept before asking. A share of an
+   * already shared study with the same key is the same phone asking again because the answer was lost on
+   * the way: it is answered again, with a new token and a new crew code (the earlier ones, never received,
+   * stop working). Any other share of a shared study is refused (409).
+   */
+  shareKey: string;
 }
 export interface ShareResponse {
   studyId: string;
@@ -115,14 +123,21 @@ export function deviceProblems(device: unknown, where = 'device'): string[] {
   return [];
 }
 
+const SHARE_KEY = /^[A-Za-z0-9_-]{43}$/;
+
 /** Problems of a ShareRequest (the study by the bundle's own rules and the one setup validator). */
 export function shareProblems(body: unknown): string[] {
-  if (!isObj(body)) return ['body: must be a JSON object with "study" and "device"'];
-  const extra = Object.keys(body).filter((k) => k !== 'study' && k !== 'device');
+  if (!isObj(body)) return ['body: must be a JSON object with "study", "device" and "shareKey"'];
+  const extra = Object.keys(body).filter((k) => k !== 'study' && k !== 'device' && k !== 'shareKey');
+  const key =
+    typeof body.shareKey === 'string' && SHARE_KEY.test(body.shareKey)
+      ? []
+      : ['shareKey: must be 32 random bytes in base64url (43 characters)'];
   return [
     ...extra.map((k) => `${k}: unknown field`),
     ...studyProblems(body.study),
     ...deviceProblems(body.device),
+    ...key,
   ];
 }
 
@@ -132,6 +147,15 @@ export function joinProblems(body: unknown): string[] {
   const extra = Object.keys(body).filter((k) => k !== 'code' && k !== 'device');
   const code = typeof body.code === 'string' ? [] : ['code: missing or not text'];
   return [...extra.map((k) => `${k}: unknown field`), ...code, ...deviceProblems(body.device)];
+}
+
+/** Problems of a JoinResponse as the phone receives it (the study by the bundle's own rules). */
+export function joinAnswerProblems(body: unknown): string[] {
+  if (!isObj(body)) return ['answer: not a JSON object'];
+  const problems = studyProblems(body.study);
+  if (typeof body.token !== 'string' || body.token === '') problems.push('token: missing');
+  if (typeof body.phoneId !== 'string' || body.phoneId === '') problems.push('phoneId: missing');
+  return problems;
 }
 
 /**

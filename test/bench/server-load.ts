@@ -13,7 +13,7 @@
  *        --out PATH (test/bench/server-load; writes PATH.json and PATH.md)
  */
 import { type ChildProcess, spawn } from 'node:child_process';
-import { randomUUID } from 'node:crypto';
+import { randomBytes, randomUUID } from 'node:crypto';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { cpus, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
@@ -128,7 +128,7 @@ async function main(): Promise<void> {
       base,
       'POST',
       '/studies',
-      { study, device: devices[0] },
+      { study, device: devices[0], shareKey: randomBytes(32).toString('base64url') },
       { 'x-forwarded-for': '10.9.0.0' },
     );
     const tokens = [shared.token as string];

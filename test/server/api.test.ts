@@ -16,7 +16,7 @@ import { createApp } from '../../src/server/app.ts';
 import type { Db } from '../../src/server/db.ts';
 import { formatCrewCode } from '../../src/sync/crew-code.ts';
 import { MAX_BODY_BYTES, type ShareResponse } from '../../src/sync/protocol.ts';
-import { backends, client, entriesOf, newStudy, testAddress, voidOf } from './harness.ts';
+import { backends, client, entriesOf, newShareKey, newStudy, testAddress, voidOf } from './harness.ts';
 
 const sha256 = (text: string) => createHash('sha256').update(text).digest('hex');
 
@@ -35,7 +35,7 @@ describe.each(backends())('crew server API on $name', (backend) => {
   async function sharedStudy(st: StudyRecord = newStudy()) {
     const request = client(app);
     const shared = await request<ShareResponse>('POST', '/studies', {
-      json: { study: st, device: 'phone-A' },
+      json: { study: st, device: 'phone-A', shareKey: newShareKey() },
     });
     expect(shared.status).toBe(201);
     const joined = await request('POST', '/join', {
@@ -61,7 +61,7 @@ describe.each(backends())('crew server API on $name', (backend) => {
     const { migrate } = await import('../../src/server/migrations.ts');
     expect(await Promise.all([migrate(db), migrate(db)])).toEqual([[], []]);
     const rows = await db.query<{ version: number }>('select version from schema_migrations');
-    expect(rows.map((r) => Number(r.version))).toEqual([1]);
+    expect(rows.map((r) => Number(r.version))).toEqual([1, 2]);
   });
 
   it('share, join, push, pull: both phones read every event, in the order stored', async () => {
@@ -197,7 +197,7 @@ describe.each(backends())('crew server API on $name', (backend) => {
       expect.stringMatching(/^limit: /),
     ]);
     const share = await request('POST', '/studies', {
-      json: { study: { ...newStudy(), setup: { kind: 'weight' } }, device: 'x' },
+      json: { study: { ...newStudy(), setup: { kind: 'weight' } }, device: 'x', shareKey: newShareKey() },
     });
     expect(share.status).toBe(400);
     expect(share.body.problems.some((p: string) => p.startsWith('study.setup.kind'))).toBe(true);
@@ -433,9 +433,41 @@ describe.each(backends())('crew server API on $name', (backend) => {
     expect((await replicated('GET', `/studies/${st.id}/events`, { token: b.token })).status).toBe(401);
   });
 
+  it('a lost share answer asked for again with the same key: a new token and code, the unseen ones dead', async () => {
+    const request = client(app);
+    const st = newStudy();
+    const shareKey = newShareKey();
+    const first = await request<ShareResponse>('POST', '/studies', {
+      json: { study: st, device: 'phone-A', shareKey },
+    });
+    expect(first.status).toBe(201);
+    // the answer never reached the phone; it asks again with the key it kept
+    const again = await request<ShareResponse>('POST', '/studies', {
+      json: { study: st, device: 'phone-A', shareKey },
+    });
+    expect(again.status).toBe(201);
+    expect(again.body.phoneId).toBe(first.body.phoneId);
+    expect(again.body.token).not.toBe(first.body.token);
+    expect(again.body.crewCode).not.toBe(first.body.crewCode);
+    expect((await request('GET', `/studies/${st.id}`, { token: first.body.token })).status).toBe(401);
+    expect((await request('GET', `/studies/${st.id}`, { token: again.body.token })).status).toBe(200);
+    expect(
+      (await request('POST', '/join', { json: { code: first.body.crewCode, device: 'phone-B' } })).status,
+    ).toBe(404);
+    expect(
+      (await request('POST', '/join', { json: { code: again.body.crewCode, device: 'phone-B' } })).status,
+    ).toBe(200);
+    // the same key from another device, or another key: refused, nothing changes
+    const other = await request('POST', '/studies', { json: { study: st, device: 'phone-X', shareKey } });
+    expect(other.status).toBe(409);
+    expect((await request('GET', `/studies/${st.id}`, { token: again.body.token })).status).toBe(200);
+  });
+
   it('a study shared twice: 409; unknown routes: JSON 404; security headers on every API answer', async () => {
     const { st, request, a } = await sharedStudy();
-    const again = await request('POST', '/studies', { json: { study: st, device: 'phone-A' } });
+    const again = await request('POST', '/studies', {
+      json: { study: st, device: 'phone-A', shareKey: newShareKey() },
+    });
     expect(again.status).toBe(409);
     const missing = await request('GET', '/nothing-here');
     expect(missing.status).toBe(404);

@@ -20,7 +20,7 @@ import { createApp } from '../../src/server/app.ts';
 import type { Db } from '../../src/server/db.ts';
 import { crewView } from '../../src/sync/crew-view.ts';
 import { heat } from '../support/published-data.ts';
-import { backends, client, entriesOf, newStudy, testAddress, voidOf } from './harness.ts';
+import { backends, client, entriesOf, newShareKey, newStudy, testAddress, voidOf } from './harness.ts';
 
 async function mergedAssessment(st: StudyRecord, logs: ObservationRecord[][]) {
   let bundle = await makeBundle(st, logs[0]!);
@@ -47,7 +47,9 @@ describe.each(backends())('pooled figures through the crew server on $name', (ba
   it('crew view of the pulled events = merge + assess of the phones bundles, clocks years apart', async () => {
     const st = newStudy();
     const request = client(app);
-    const shared = await request('POST', '/studies', { json: { study: st, device: 'phone-A' } });
+    const shared = await request('POST', '/studies', {
+      json: { study: st, device: 'phone-A', shareKey: newShareKey() },
+    });
     const tokens: Record<string, string> = { 'phone-A': shared.body.token };
     for (const device of ['phone-B', 'phone-C'])
       tokens[device] = (

@@ -19,7 +19,7 @@ import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ObservationRecord, StudyRecord } from '../../src/model/records.ts';
 import { API_PREFIX } from '../../src/sync/protocol.ts';
-import { databaseUrl, dropSchema, entriesOf, newStudy } from './harness.ts';
+import { databaseUrl, dropSchema, entriesOf, newShareKey, newStudy } from './harness.ts';
 
 const root = join(import.meta.dirname, '..', '..');
 const script = join(root, 'dist-server', 'server.mjs');
@@ -185,7 +185,11 @@ describe.each(places)('faults on a real server process on $name', ({ make }) => 
     const place = fresh();
     let server = await start(place);
     const st = newStudy();
-    const shared = await call(server.base, 'POST', '/studies', { study: st, device: 'phone-A' });
+    const shared = await call(server.base, 'POST', '/studies', {
+      study: st,
+      device: 'phone-A',
+      shareKey: newShareKey(),
+    });
     expect(shared.status).toBe(201);
     const token = shared.body.token as string;
     const all = batches(st, 4);
@@ -216,7 +220,11 @@ describe.each(places)('faults on a real server process on $name', ({ make }) => 
     const place = fresh();
     const server = await start(place);
     const st = newStudy();
-    const shared = await call(server.base, 'POST', '/studies', { study: st, device: 'phone-A' });
+    const shared = await call(server.base, 'POST', '/studies', {
+      study: st,
+      device: 'phone-A',
+      shareKey: newShareKey(),
+    });
     const token = shared.body.token as string;
     const all = batches(st, 3);
     const delays = [0, 5, 50];
@@ -237,7 +245,11 @@ describe.each(places)('faults on a real server process on $name', ({ make }) => 
     const place = fresh();
     const server = await start(place);
     const st = newStudy();
-    const shared = await call(server.base, 'POST', '/studies', { study: st, device: 'phone-A' });
+    const shared = await call(server.base, 'POST', '/studies', {
+      study: st,
+      device: 'phone-A',
+      shareKey: newShareKey(),
+    });
     const token = shared.body.token as string;
     const [batch] = batches(st, 1);
     const outcome = await pushThenCut(server.base, st.id, token, batch!, () => server.child.kill('SIGTERM'));

@@ -6,7 +6,7 @@
  * PostgreSQL too when DATABASE_URL is set, each test file in a schema of its own (created here, dropped
  * at the end), so files and runs never see each other's rows.
  */
-import { randomUUID } from 'node:crypto';
+import { randomBytes, randomUUID } from 'node:crypto';
 import type { Hono } from 'hono';
 import pg from 'pg';
 import type { ObservationRecord, StudyRecord } from '../../src/model/records.ts';
@@ -96,6 +96,11 @@ export const testAddress = (c: { req: { header: (name: string) => string | undef
   c.req.header('x-test-address') ?? 'unknown';
 
 /** A measurement study with a fresh id (setup as the bundle tests' measurement studies). */
+/** A share key as a phone makes one: 32 random bytes, base64url (src/sync/protocol.ts, ShareRequest). */
+export function newShareKey(): string {
+  return randomBytes(32).toString('base64url');
+}
+
 export function newStudy(over: Partial<StudyRecord['setup']> = {}): StudyRecord {
   return {
     id: randomUUID(),

@@ -98,6 +98,29 @@ async function record(id: string, me: string, k: number): Promise<void> {
 
 const pushes = () => server.log.filter((r) => r.method === 'POST' && r.path.endsWith('/events'));
 
+describe('sharing', () => {
+  it('a share whose answer was cut asks again with the same share key (the server can tell it is a retry)', async () => {
+    const s = await createStudy({ name: 'Heat flow', setup }, 'creator');
+    const keys: unknown[] = [];
+    const fetchOf = server.fetch;
+    setSyncDeps({
+      fetch: (url, init) => {
+        if (String(url).endsWith('/studies') && init?.method === 'POST')
+          keys.push((JSON.parse(String(init.body)) as { shareKey: unknown }).shareKey);
+        return fetchOf(url, init);
+      },
+    });
+    server.faults.push({ kind: 'cut' });
+    const first = await shareStudy(s.id);
+    expect(first.ok).toBe(false);
+    const second = await shareStudy(s.id);
+    expect(second.ok).toBe(true);
+    expect(keys).toHaveLength(2);
+    expect(keys[0]).toMatch(/^[A-Za-z0-9_-]{43}$/);
+    expect(keys[1]).toBe(keys[0]);
+  });
+});
+
 describe('push', () => {
   it('sends only its own events, oldest first, in batches of at most MAX_BATCH_EVENTS, and remembers the acknowledged seq', async () => {
     const s = await createStudy({ name: 'Heat flow', setup }, 'creator');

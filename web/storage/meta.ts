@@ -3,7 +3,7 @@
  * database on the same phone keeps the same id), the first run, and the persistent-storage answer.
  */
 import { getDb, withWrite } from './db.ts';
-import type { PersistAnswer } from './schema.ts';
+import type { MetaKey, PersistAnswer } from './schema.ts';
 import { isoWithOffset } from './time.ts';
 
 const LS_DEVICE = 'sure-enough.device';
@@ -64,4 +64,27 @@ export async function ensurePersistence(ask = false): Promise<PersistState> {
       await tx.done;
     });
   return { answer, firstRun: first };
+}
+
+/**
+ * The key this phone shares a study with the crew server under (32 random bytes, base64url): made once
+ * and kept before the first ask, so that asking again after a lost answer is recognised as the same share
+ * (src/sync/protocol.ts, ShareRequest.shareKey).
+ */
+export async function shareKeyFor(studyId: string): Promise<string> {
+  const db = await getDb();
+  const name: MetaKey = `shareKey:${studyId}`;
+  const stored = await db.get('meta', name);
+  if (typeof stored === 'string' && stored) return stored;
+  const bytes = crypto.getRandomValues(new Uint8Array(32));
+  const key = btoa(String.fromCharCode(...bytes))
+    .replace(/\+/g, '-')
+    .replace(/\//g, '_')
+    .replace(/=+$/, '');
+  await withWrite(async (d) => {
+    const tx = d.transaction('meta', 'readwrite', { durability: 'strict' });
+    await tx.store.put(key, name);
+    await tx.done;
+  });
+  return key;
 }

@@ -51,7 +51,8 @@ export interface ExportRecord {
   format: string;
 }
 
-export type MetaKey = 'device' | 'firstRunAt' | 'persist';
+/** `shareKey:<study id>`: the key a study was shared with the crew server under (meta.ts, shareKeyFor). */
+export type MetaKey = 'device' | 'firstRunAt' | 'persist' | `shareKey:${string}`;
 export interface PersistAnswer {
   at: string;
   /** 'granted' | 'refused' | 'unsupported' */

@@ -7,7 +7,7 @@ import type { CodeResponse, CrewResponse, JoinResponse, ShareResponse, StudyReco
 import { loadCore } from '../core-loader.ts';
 import { getLink, saveLink, updateLink } from '../storage/crew.ts';
 import { writeImport } from '../storage/import.ts';
-import { deviceId } from '../storage/meta.ts';
+import { deviceId, shareKeyFor } from '../storage/meta.ts';
 import type { CrewLink, StoredStudy } from '../storage/schema.ts';
 import { getStudy } from '../storage/studies.ts';
 import { isoWithOffset } from '../storage/time.ts';
@@ -57,9 +57,9 @@ export async function shareStudy(studyId: string): Promise<Done<CrewLink>> {
   const study = await getStudy(studyId);
   if (!study) return fail('Not shared: this study is not on this phone.');
   if (study.demo) return fail('Not shared: the demo holds invented data and is not shared with a crew.');
-  const device = await deviceId();
+  const [device, shareKey] = await Promise.all([deviceId(), shareKeyFor(studyId)]);
   const r = await request<ShareResponse>(deps, apiUrl(SERVER, core.API_PREFIX, '/studies'), 'POST', {
-    body: { study: recordOf(study), device },
+    body: { study: recordOf(study), device, shareKey },
   });
   if (r.kind !== 'ok')
     return fail(
@@ -108,8 +108,7 @@ export async function joinCrew(typed: string): Promise<Done<{ studyId: string; n
     );
   if (r.kind !== 'ok') return fail(notDone(r, 'Not joined'));
   const b = r.body;
-  const problems = core.shareProblems({ study: b?.study, device });
-  if (typeof b?.token !== 'string' || typeof b.phoneId !== 'string') problems.push('token: missing');
+  const problems = core.joinAnswerProblems(b);
   if (problems.length > 0)
     return fail(
       `Not joined: the crew server sent a study this phone cannot use (${problems.slice(0, 3).join('; ')}).`,

@@ -53,9 +53,11 @@ describe('crew codes (Crockford Base32)', () => {
 describe('request validators', () => {
   const st = study();
   it('a share names each problem by its field, the setup through the one validator', () => {
-    expect(shareProblems({ study: st, device: 'phone-A' })).toEqual([]);
+    const shareKey = 'A'.repeat(43);
+    expect(shareProblems({ study: st, device: 'phone-A', shareKey })).toEqual([]);
     const bad = { ...st, setup: { ...st.setup, level: 1.5 } };
-    const problems = shareProblems({ study: bad, device: '', extra: 1 });
+    const problems = shareProblems({ study: bad, device: '', extra: 1, shareKey: 'short' });
+    expect(problems).toContain('shareKey: must be 32 random bytes in base64url (43 characters)');
     expect(problems).toContain('extra: unknown field');
     expect(problems).toContain('device: must not be empty');
     expect(problems.some((p) => p.startsWith('study.setup.level:'))).toBe(true);
