@@ -52,7 +52,10 @@ const show = (v: unknown): string =>
       ? 'an array'
       : typeof v === 'string'
         ? `"${v.slice(0, 40)}"`
-        : String(v);
+        : // an object: never String(v), which throws for hostile ones such as {"toString": 1}
+          typeof v === 'object'
+          ? 'an object'
+          : String(v);
 
 class Problems {
   list: string[] = [];

@@ -63,6 +63,15 @@ describe('study-bundle importer under fuzzing (fast-check)', () => {
     expect(Object.hasOwn(Object.prototype, 'polluted')).toBe(false);
   });
 
+  it('a member given as an object whose own toString is not a function is named, never thrown on', async () => {
+    // found by the fuzzing above: the message writer called String() on it, which throws
+    const good = fc.sample(goodBundle, { numRuns: 1, seed: 7 })[0]!;
+    const file = JSON.stringify({ ...good, study: { ...good.study, id: { toString: 1 } } });
+    const r = await parseBundle(file);
+    expect(r.ok).toBe(false);
+    if (!r.ok) expect(r.problems).toContain('study.id: not a lower-case UUID, got an object');
+  });
+
   it('one character inserted, deleted or replaced: refused with messages, or exactly the same bundle', async () => {
     await fc.assert(
       fc.asyncProperty(
