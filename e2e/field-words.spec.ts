@@ -192,9 +192,11 @@ test('plain words on the field screen; the counts demo exports Darwin Core; the 
   await expect(page.locator('html.sun')).toHaveCount(1);
   await page.getByRole('heading', { name: 'Running interval' }).scrollIntoViewIfNeeded();
   await axe(page, 'report-chart-sun');
-  // the setup offers what its advice names: the log-scale method, Iwao's coefficients, the taxon
+  // the setup offers what its advice names: the interval chosen from the data (checked by default) besides the
+  // named methods, Iwao's coefficients, the taxon
   await page.goto('/#/new');
-  await expect(page.getByRole('radio', { name: /Log scale, for skewed values/ })).toBeVisible();
+  await expect(page.getByRole('radio', { name: /^Chosen from the data/ })).toBeChecked();
+  await expect(page.getByRole('radio', { name: /Log scale, for lognormal values/ })).toBeVisible();
   await page.getByRole('radio', { name: /^Count per plot/ }).check();
   await expect(page.getByLabel('Scientific name (for Darwin Core)')).toBeVisible();
   await page.getByText('Planning coefficients for counts').click();

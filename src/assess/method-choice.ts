@@ -63,6 +63,12 @@ export function chooseMeasurementMethod(s: RunningSummary): MethodChoice {
       reason: `the values are skewed to the right (D’Agostino z = ${z}) and their logarithms to the left (z = ${logZ.toFixed(2)}), as gamma-shaped data are: the gamma-based interval`,
       criterion,
     };
+  if (logZ >= SKEW_Z)
+    return {
+      method: 'johnson-t',
+      reason: `the values are skewed to the right (D’Agostino z = ${z}) and so are their logarithms (z = ${logZ.toFixed(2)}): heavier-tailed than lognormal (a mixture, such as a hot area), so Student t moved for the skewness (Johnson 1978)`,
+      criterion,
+    };
   return {
     method: 'cox',
     reason: `the values are skewed to the right (D’Agostino z = ${z}) and their logarithms are not skewed to the left (z = ${logZ.toFixed(2)}), as lognormal data are: the log-scale (modified Cox) interval`,

@@ -19,7 +19,13 @@ import type { Interval } from '../model/interval.ts';
 import { METHODS_BY_KIND, SETUP_DEFAULTS } from '../model/setup-lists.ts';
 import type { AnalysisSetup, Assessment, MethodName, More, Verdict } from '../model/types.ts';
 import { hotSpotDetection } from '../stats/hot-spot-detection.ts';
-import { decide, HOT_SPOT_DETECTION, minimumBeforeVerdict, type RuleContext } from '../stop/index.ts';
+import {
+  decide,
+  HOT_SPOT_DETECTION,
+  minimumBeforeVerdict,
+  type RuleContext,
+  standardLevel,
+} from '../stop/index.ts';
 import type { SpreadJump } from './entries.ts';
 import type { Estimator } from './estimator.ts';
 import { type MoreMemory, projectMore } from './more.ts';
@@ -149,7 +155,10 @@ export function runPipeline(
     // the data chose (method auto). The limit decision keeps its own family (the setup's), so that its lines
     // do not move with the choice.
     const chosen = chosenMethod(setup, estimator.method);
-    if (chosen !== undefined && setup.rule !== 'sprt') ruleSetup.method = chosen;
+    if (chosen !== undefined && setup.rule !== 'sprt') {
+      ruleSetup.method = chosen;
+      ctx.methodChosen = true;
+    }
     if (setup.rule === 'sprt' && estimator.sprtApplies === false) {
       ruleSetup = { ...ruleSetup, rule: 'naive' };
       warnings.push(
@@ -187,11 +196,26 @@ export function runPipeline(
     options.projection !== false &&
     options.more !== false
   ) {
+    // before the rule has spoken (the minimum, a guard), project at the level the standard rule will check,
+    // not the nominal one: a projection at 95 % when the stop is checked at 96.4 % falls short every time
+    let projectionLevel = level;
+    if (ruleLabel === null && setup.rule === 'standard') {
+      const s = subject.stats;
+      const dispersion = setup.kind === 'count' && s.mean > 0 ? (s.sd * s.sd) / s.mean : null;
+      const chosen = chosenMethod(setup, estimator.method);
+      projectionLevel = standardLevel(
+        chosen === undefined ? setup : { ...setup, method: chosen },
+        s.logSd,
+        dispersion,
+        n,
+        chosen !== undefined,
+      );
+    }
     const out = projectMore(
       estimator,
       setup,
       min,
-      level,
+      projectionLevel,
       sided,
       n,
       details,

@@ -131,6 +131,7 @@ export function replaySequence(
       sidedSetups[setupKey] = s;
     }
     ctx.n = n;
+    ctx.methodChosen = chosen !== undefined;
     ctx.intervalAt = estimator.intervalAt;
     plots = n;
     if (estimator.method === 'poisson-exact') {

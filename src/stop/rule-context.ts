@@ -27,6 +27,12 @@ export interface RuleContext {
     logMean: number | null;
     logSd: number | null;
   };
+  /**
+   * True when the interval family was chosen from the data at this entry (measurements with method auto,
+   * src/assess/method-choice.ts): choosing among intervals after every entry is itself a look at the data, so
+   * the standard rule corrects for it (standard-level.ts, CHOICE_ALPHA_FACTOR).
+   */
+  methodChosen?: boolean;
   /** The observations in entry order (for rules that look back, e.g. Stein's pilot); do not mutate. */
   values: readonly number[];
   /**

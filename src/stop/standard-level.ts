@@ -37,6 +37,20 @@ export const STANDARD_ALPHA_RATIO: Readonly<Record<StandardGroup, number>> = {
   'pass-fail': 0.9,
 };
 
+/**
+ * A limit decision stops the first time a one-sided bound clears the limit, which is a one-sided test
+ * repeated after every entry: its error grows with the number of looks faster than a two-sided interval's
+ * miss (the law of the iterated logarithm), so limit targets get a further factor on ρ, calibrated on the
+ * benchmark's limit cells (test/bench/coverage.md) like the groups above.
+ */
+export const LIMIT_ALPHA_FACTOR: Readonly<Record<'limit', number>> = { limit: 0.7 };
+/**
+ * Measurements whose interval the data chose (method auto): a further factor on ρ, since the rule may stop
+ * on whichever family happens to look narrow at that entry; calibrated on the measurement cells of the
+ * benchmark (hot-spot mixtures left out: no factor rescues them). At most 1, like the limit factor.
+ */
+export const CHOICE_ALPHA_FACTOR: Readonly<Record<'choice', number>> = { choice: 0.8 };
+
 export function standardGroup(setup: Pick<AnalysisSetup, 'kind' | 'method'>): StandardGroup {
   if (setup.kind === 'pass-fail') return 'pass-fail';
   if (setup.kind === 'count') return 'count';
@@ -58,10 +72,11 @@ export const COUNT_DISPERSION_KAPPA = 0.7;
 export const COUNT_RHO_FLOOR = 0.3;
 
 export function standardLevel(
-  setup: Pick<AnalysisSetup, 'kind' | 'method' | 'level'>,
+  setup: Pick<AnalysisSetup, 'kind' | 'method' | 'level'> & { target?: AnalysisSetup['target'] },
   logSd: number | null = null,
   dispersionIndex: number | null = null,
   n = COUNT_REFERENCE_N,
+  chosen = false,
 ): number {
   const { level } = setup;
   if (!(level > 0 && level < 1)) throw new RangeError('standardLevel requires 0 < level < 1');
@@ -74,5 +89,7 @@ export function standardLevel(
       COUNT_RHO_FLOOR,
       rho * Math.exp(-COUNT_DISPERSION_KAPPA * (dispersionIndex - 1) * Math.min(1, COUNT_REFERENCE_N / n)),
     );
+  if (setup.target?.kind === 'limit') rho *= LIMIT_ALPHA_FACTOR.limit;
+  if (chosen) rho *= CHOICE_ALPHA_FACTOR.choice;
   return 1 - rho * (1 - level);
 }

@@ -32,7 +32,13 @@ import { greenStopLine } from './green-stop-line.ts';
 import { innerKeepGoing } from './inner-keep-going.ts';
 import { kunoStopLine } from './kuno-stop-line.ts';
 import type { Interval, RuleContext, RuleDecision } from './rule-context.ts';
-import { STANDARD_ALPHA_RATIO, standardGroup, standardLevel } from './standard-level.ts';
+import {
+  CHOICE_ALPHA_FACTOR,
+  LIMIT_ALPHA_FACTOR,
+  STANDARD_ALPHA_RATIO,
+  standardGroup,
+  standardLevel,
+} from './standard-level.ts';
 import { decideOn, statusOf } from './status-of.ts';
 
 /** Chow–Robbins count-unit floor c (squared count units per plot). */
@@ -68,9 +74,14 @@ function quickKeepGoing(ctx: RuleContext, setup: AnalysisSetup, level: number): 
   if (inner !== null) return inner === false ? null : inner; // tried: the floor below would not do better
   const group = standardGroup(setup);
   if (group !== 'count' && group !== 'measurement-log') return null;
-  const floorLevel = 1 - STANDARD_ALPHA_RATIO[group] * (1 - setup.level);
+  // the limit factor is at most 1 (standard-level.ts), so it only lowers the largest ρ
+  const rhoMax =
+    STANDARD_ALPHA_RATIO[group] *
+    (setup.target?.kind === 'limit' ? LIMIT_ALPHA_FACTOR.limit : 1) *
+    (ctx.methodChosen === true ? CHOICE_ALPHA_FACTOR.choice : 1);
+  const floorLevel = 1 - rhoMax * (1 - setup.level);
   if (level === floorLevel) return null; // already the cached quantile
-  const below = 1 - STANDARD_ALPHA_RATIO[group] * (1 - setup.level) * (1 + 1e-6);
+  const below = 1 - rhoMax * (1 - setup.level) * (1 + 1e-6);
   let interval = ctx.intervalAt(below, setup.sided);
   if (ctx.kind === 'count') interval = withCountFloor(interval, ctx.n, ctx.stats.sd);
   return statusOf(ctx.check(interval)) === 'keep going' ? interval : null;
@@ -78,7 +89,7 @@ function quickKeepGoing(ctx: RuleContext, setup: AnalysisSetup, level: number): 
 
 export function standardRule(ctx: RuleContext, setup: AnalysisSetup): RuleDecision {
   const dispersion = ctx.kind === 'count' && ctx.stats.mean > 0 ? ctx.stats.sd ** 2 / ctx.stats.mean : null;
-  const level = standardLevel(setup, ctx.stats.logSd, dispersion, ctx.n);
+  const level = standardLevel(setup, ctx.stats.logSd, dispersion, ctx.n, ctx.methodChosen === true);
   const stopLine = ctx.kind === 'count' && setup.target?.kind === 'precision' && setup.planning !== undefined;
   if (ctx.stopOnly && !stopLine) {
     const quick = quickKeepGoing(ctx, setup, level);

@@ -234,10 +234,11 @@ describe('pass/fail with one outcome only: never `enough`, but a limit may be de
     expect(status(148)).toBe('keep going');
     expect(status(149)).toBe('below limit');
     expect(replaySequence(new Array(300).fill(0), setup).stoppedAt).toBe(149);
-    // standard: checked at 1 − 0.9·0.05 = 95.5 %, ⌈ln 0.045 / ln 0.98⌉ = 154 [derived]
+    // standard: checked at 1 − 0.9·0.7·0.05 = 96.85 % (ρ 0.9 for pass/fail times 0.7 for a limit,
+    // src/stop/standard-level.ts), ⌈ln 0.0315 / ln 0.98⌉ = ⌈171.15⌉ = 172 [derived]
     const std = { ...setup, rule: 'standard' as const };
-    expect(replaySequence(new Array(300).fill(0), std).stoppedAt).toBe(154);
-    expect(firstStopByAssess(new Array(300).fill(0), std)).toBe(154);
+    expect(replaySequence(new Array(300).fill(0), std).stoppedAt).toBe(172);
+    expect(firstStopByAssess(new Array(300).fill(0), std)).toBe(172);
   });
 });
 

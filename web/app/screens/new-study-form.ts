@@ -354,6 +354,10 @@ export function buildSetup(f: Form): { setup: StudySetup; name: string } | { err
     else setup.strata = r.strata;
   } else if (f.strataCosts.trim() !== '') e.strataCosts = 'Effort per stratum: needs strata.';
   if (!f.ack) e.ack = 'Cautions: read them and tick the box to start.';
+  // the form offers strict for pass/fail only (new-study.tsx says why); a duplicated older study may carry it
+  if (f.rule === 'strict' && f.kind !== 'pass-fail')
+    e.rule =
+      'Stopping rule: strict is offered for pass/fail items only; choose standard or the limit decision.';
   const candidate = given(setup);
   // the validator's words under the field that sets the value; a field that could not be read keeps
   // the reason it could not
