@@ -3,7 +3,8 @@
  * entries (likely, 10th–90th percentile range, 80 % assured when the estimator gives it), capped at the
  * population and smoothed one entry back.
  *
- * Smoothing: once n ≥ min, the likely total is clamped to 0.5–1.5 × the previous entry's raw (unclamped)
+ * Before the minimum the figure is the entries still missing to it ("at least M more"), or the projection when
+ * that reaches further. Smoothing: once n ≥ min, the likely total is clamped to 0.5–1.5 × the previous entry's raw (unclamped)
  * projected total, so one odd value does not make the figure jump by thousands. The previous entry's raw
  * total is carried as a typed `MoreMemory`; because the clamp looks at the previous raw figure only, the
  * result after n entries needs just the assessments at n − 1 and n, whatever n is.
@@ -42,9 +43,24 @@ export function projectMore(
   const target = setup.target;
   if (target === undefined) return { more: null, memory: null };
   const cap = setup.population;
+  const clampTotal = (x: number): number => (cap === undefined ? x : Math.min(x, cap));
   if (n < min) {
+    // before the minimum: the minimum, or the projection when it already sees further (a crew plans with
+    // "about 70 more", not "at least 19 more", when the spread so far asks for a hundred)
     const m = min - n;
-    return { more: { likely: m, low: m, high: m, atLeast: true }, memory: null };
+    const early = n >= 2 ? estimator.project(target, level, sided) : null;
+    if (early === null || !Number.isFinite(early.likely) || Math.ceil(early.likely - 1e-9) <= min)
+      return { more: { likely: m, low: m, high: m, atLeast: true }, memory: null };
+    const total = (x: number) => Math.max(min, clampTotal(Math.ceil(x - 1e-9)));
+    details.moreBasis = early.basis;
+    const more: More = {
+      likely: total(early.likely) - n,
+      low: total(early.low) - n,
+      high: Number.isFinite(early.high) ? total(early.high) - n : Number.MAX_SAFE_INTEGER,
+    };
+    if (early.assured !== undefined && Number.isFinite(early.assured))
+      more.assured = total(early.assured) - n;
+    return { more, memory: null };
   }
   const raw = estimator.project(target, level, sided);
   if (raw === null) {
@@ -52,7 +68,6 @@ export function projectMore(
     return { more: null, memory: null };
   }
   details.moreBasis = raw.basis;
-  const clampTotal = (x: number): number => (cap === undefined ? x : Math.min(x, cap));
   let likelyTotal = clampTotal(Math.ceil(raw.likely - 1e-9));
   let lowTotal = clampTotal(Math.ceil(raw.low - 1e-9));
   let highTotal = clampTotal(Math.ceil(raw.high - 1e-9));

@@ -8,9 +8,10 @@
  * and recommendations, The American Statistician 37:242–247).
  * Preconditions: finite numbers; `remove` only a number that was added.
  * Returns: `n`, `mean`, `m2` (sum of squared deviations from the mean; the sample variance is m2/(n − 1)),
- * `m3` (sum of cubed deviations, for the skewness; updated as in Pébay P (2008) Formulas for robust,
- * one-pass parallel computation of covariances and arbitrary-order statistical moments, Sandia report
- * SAND2008-6212, eq. 2.1 with one new value: M3 += δ³(n−1)(n−2)/n² − 3δ·M2/n, with the old M2).
+ * `m3` and `m4` (sums of cubed and fourth-power deviations, for the skewness and the kurtosis; updated as
+ * in Pébay P (2008) Formulas for robust, one-pass parallel computation of covariances and arbitrary-order
+ * statistical moments, Sandia report SAND2008-6212, eq. 2.1 with one new value, δ = x − old mean:
+ * M4 += δ⁴(n−1)(n²−3n+3)/n³ + 6δ²·M2/n² − 4δ·M3/n, M3 += δ³(n−1)(n−2)/n² − 3δ·M2/n, with the old M2, M3).
  * Validity: removal loses a little precision after very many add/remove cycles (relative ~1e-12 per
  * cycle); `m2` is kept ≥ 0, and `settle` clears the residue when every number left is the same.
  * @example const m = new RunningMoments(); m.add(2); m.add(4); m.mean // 3, m.m2 // 2
@@ -20,13 +21,16 @@ export class RunningMoments {
   mean = 0;
   m2 = 0;
   m3 = 0;
+  m4 = 0;
 
   add(x: number): void {
     const n = ++this.n;
     const d = x - this.mean;
     const dn = d / n;
+    const dn2 = dn * dn;
     const term = d * dn * (n - 1);
     this.mean += dn;
+    this.m4 += term * dn2 * (n * n - 3 * n + 3) + 6 * dn2 * this.m2 - 4 * dn * this.m3;
     this.m3 += term * dn * (n - 2) - 3 * dn * this.m2;
     this.m2 += term;
   }
@@ -37,6 +41,7 @@ export class RunningMoments {
       this.mean = 0;
       this.m2 = 0;
       this.m3 = 0;
+      this.m4 = 0;
       return;
     }
     // the add above run backwards: δ and M2 of the state before x came
@@ -45,8 +50,13 @@ export class RunningMoments {
     this.mean = (n * old - x) / (n - 1);
     const d = x - this.mean;
     const dn = d / n;
-    this.m2 = Math.max(0, this.m2 - d * dn * (n - 1));
-    this.m3 -= d * dn * (n - 1) * dn * (n - 2) - 3 * dn * this.m2;
+    const term = d * dn * (n - 1);
+    this.m2 = Math.max(0, this.m2 - term);
+    this.m3 -= term * dn * (n - 2) - 3 * dn * this.m2;
+    this.m4 = Math.max(
+      0,
+      this.m4 - term * dn * dn * (n * n - 3 * n + 3) - 6 * dn * dn * this.m2 + 4 * dn * this.m3,
+    );
     this.n--;
   }
 
@@ -62,5 +72,6 @@ export class RunningMoments {
     this.mean = value;
     this.m2 = 0;
     this.m3 = 0;
+    this.m4 = 0;
   }
 }

@@ -22,6 +22,11 @@ function momentSkewness(n: number, m2: number, m3: number): number | null {
   return (Math.sqrt(n) * m3) / m2 ** 1.5;
 }
 
+function momentKurtosis(n: number, m2: number, m4: number): number | null {
+  if (n < 4 || !(m2 > 0)) return null;
+  return (n * m4) / (m2 * m2) - 3;
+}
+
 export class RunningSummary {
   /** Moments of the uncensored values, and of ln(x) over the positive ones. */
   private readonly raw = new RunningMoments();
@@ -80,6 +85,14 @@ export class RunningSummary {
   /** The same of ln(x) over the positive values. */
   get logSkewness(): number | null {
     return momentSkewness(this.log.n, this.log.m2, this.log.m3);
+  }
+  /** Sample excess kurtosis g₂ = n·M4/M2² − 3 of the values; null below four values or without spread. */
+  get kurtosis(): number | null {
+    return momentKurtosis(this.raw.n, this.raw.m2, this.raw.m4);
+  }
+  /** The same of ln(x) over the positive values. */
+  get logKurtosis(): number | null {
+    return momentKurtosis(this.log.n, this.log.m2, this.log.m4);
   }
   /** Sample SD of ln(x) over the positive values; 0 when fewer than 2. */
   get logSd(): number {

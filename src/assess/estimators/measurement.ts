@@ -4,6 +4,7 @@
  * (those, Land or Chebyshev). Glue over the method files; see each for its source.
  */
 import type { AnalysisSetup, MeasurementMethod, MethodChoice, Sided, Target } from '../../model/types.ts';
+import { boxVarianceDf } from '../../plan/box-variance-df.ts';
 import { sigmaQuantile as sigmaQ } from '../../plan/chi-square-sigma-limits.ts';
 import { logScaleRelativeSampleSize } from '../../plan/log-scale-relative-sample-size.ts';
 import { projectMeasurement } from '../../plan/measurement-projection.ts';
@@ -133,7 +134,9 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
           ? 1 / Math.sqrt(alpha)
           : Math.sqrt(1 / alpha - 1)
         : undefined;
-    const withPop = population === undefined ? {} : { population };
+    // heavy tails widen the σ distribution behind the range (Box 1953, src/plan/box-variance-df.ts)
+    const withPop =
+      population === undefined ? { kurtosis: summary.kurtosis } : { population, kurtosis: summary.kurtosis };
     const withMult = multiplier === undefined ? {} : { multiplier };
     switch (target.kind) {
       case 'margin': {
@@ -146,10 +149,13 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
           const s = summary.logSd;
           if (!(s > 0)) return null;
           const at = (sy: number) => logScaleRelativeSampleSize(sy, target.value, p);
+          const g2 = summary.logKurtosis;
+          const df = g2 === null ? n - 1 : boxVarianceDf(n, g2);
           return {
-            likely: at(s),
-            low: at(sigmaQ(s, n, 0.1)),
-            high: at(sigmaQ(s, n, 0.9)),
+            likely: at(sigmaQ(s, n, 0.5, df)),
+            low: at(sigmaQ(s, n, 0.1, df)),
+            high: at(sigmaQ(s, n, 0.9, df)),
+            assured: at(sigmaQ(s, n, 0.8, df)),
             basis:
               'log-scale (Cox) half-width exp(t·SE) − 1 ≤ R, range from the chi-square distribution of σ of ln x',
           };

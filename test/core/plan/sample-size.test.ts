@@ -1,6 +1,7 @@
 // Planning formulas against worked figures from the published formulas (source and evidence beside each)
 // and scipy (stats-plan.json, `python3 test/fixtures/stats-fixtures.py`).
 import { describe, expect, it } from 'vitest';
+import { boxVarianceDf } from '../../../src/plan/box-variance-df.ts';
 import { sigmaQuantile } from '../../../src/plan/chi-square-sigma-limits.ts';
 import { countSampleSize } from '../../../src/plan/count-sample-size.ts';
 import { fixedPointSampleSize } from '../../../src/plan/fixed-point-sample-size.ts';
@@ -55,12 +56,24 @@ describe('likely range from the chi-square distribution of σ (src/plan/README.m
   it.each(fx.cases.sigmaQuantile)('s=$s n=$n q=$q vs scipy [derived]', (c) => {
     expect(sigmaQuantile(c.s, c.n, c.q)).toBeCloseTo(c.sigma, 8);
   });
-  it('n = 8, s = 2, d = 1: point 17.8, range 11.4–40.4, assured 22 (Cochran 1977 §4.4; Kupper & Hafner 1989) [derived]', () => {
+  // σ at the 50th, 10th, 90th and 80th percentile of its chi-square confidence distribution (7 df), each into
+  // the fixed point n = (t₍0.975, n−1₎·σ/d)² (Cochran 1977 §4.4) and, at the 80th, Kupper & Hafner's (1989)
+  // 80 %-assured n (Browne 1995: the pilot SD's upper limit), computed by scipy 1.17 with brentq and a count
+  // up: likely 19.4131, low 11.4373, high 40.4079, assured 37 [derived]
+  it('n = 8, s = 2, d = 1: likely 19.4, range 11.4–40.4, assured 37 (scipy) [derived]', () => {
     const r = projectMeasurement({ n: 8, s: 2, d: 1, p: 0.975 });
-    expect(r.likely).toBeCloseTo(17.8, 1);
-    expect(r.low).toBeCloseTo(11.4, 1);
-    expect(r.high).toBeCloseTo(40.4, 1);
-    expect(r.assured).toBe(22);
+    expect(r.likely).toBeCloseTo(19.4131, 2);
+    expect(r.low).toBeCloseTo(11.4373, 2);
+    expect(r.high).toBeCloseTo(40.4079, 2);
+    expect(r.assured).toBe(37);
+  });
+  it('heavy tails widen the range by Box’s degrees of freedom (ν = 2/(2/7 + 6/8) = 1.93 for g₂ = 6)', () => {
+    const normal = projectMeasurement({ n: 8, s: 2, d: 1, p: 0.975 });
+    const heavy = projectMeasurement({ n: 8, s: 2, d: 1, p: 0.975, kurtosis: 6 });
+    expect(heavy.high).toBeGreaterThan(normal.high);
+    expect(heavy.low).toBeLessThan(normal.low);
+    // light tails are not credited
+    expect(projectMeasurement({ n: 8, s: 2, d: 1, p: 0.975, kurtosis: -1.5 })).toEqual(normal);
   });
 });
 
@@ -114,5 +127,14 @@ describe('log-scale relative target (Cox standard error, Zhou & Gao 1997)', () =
   });
   it.each(fx.cases.logRelative)('s_y=$s_y r=$r vs scipy brentq [derived]', (c) => {
     expect(Math.abs(logScaleRelativeSampleSize(c.s_y, c.r, c.p) - c.n) / c.n).toBeLessThan(2e-5);
+  });
+});
+
+describe('Box (1953) degrees of freedom of a variance under non-normality', () => {
+  it('ν = 2/(2/(n − 1) + γ₂/n): n = 30, γ₂ = 6 → 7.4359; normal or light tails → n − 1 [derived by hand]', () => {
+    expect(boxVarianceDf(30, 6)).toBeCloseTo(2 / (2 / 29 + 6 / 30), 12);
+    expect(boxVarianceDf(30, 6)).toBeCloseTo(7.4359, 4);
+    expect(boxVarianceDf(30, 0)).toBe(29);
+    expect(boxVarianceDf(30, -1.2)).toBe(29);
   });
 });

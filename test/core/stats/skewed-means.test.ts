@@ -21,6 +21,14 @@ describe.each(fixture.cases)('$kind, n = $values.length', (c) => {
     relClose(s.skewness as number, c.skew, 1e-9);
     relClose(s.logSkewness as number, c.logSkew, 1e-9);
   });
+  it('moment kurtosis g₂ of the values and of their logarithms (scipy.stats.kurtosis, bias=True), also after a removal', () => {
+    relClose(s.kurtosis as number, c.kurtosis, 1e-8);
+    relClose(s.logKurtosis as number, c.logKurtosis, 1e-8);
+    // the running sums run backwards: add one value and take it away again
+    const again = RunningSummary.of(c.values).add(123.456).remove(123.456);
+    relClose(again.kurtosis as number, c.kurtosis, 1e-7);
+    relClose(again.skewness as number, c.skew, 1e-7);
+  });
   it("D'Agostino's z (scipy.stats.skewtest)", () => {
     relClose(dagostinoSkewnessZ(n, s.skewness as number), c.z, 1e-9);
     relClose(dagostinoSkewnessZ(n, s.logSkewness as number), c.logZ, 1e-9);
@@ -44,8 +52,9 @@ describe.each(fixture.cases)('$kind, n = $values.length', (c) => {
       1e-7,
     );
   });
-  it('the choice: Student t unless skewed (skewtest z ≥ 1.645), then gamma when the logarithms lean left (their z ≤ −1.645), else the log scale', () => {
-    const want = c.z < 1.6448536269514722 ? 't' : c.logZ <= -1.6448536269514722 ? 'gamma' : 'cox';
+  it('the choice: Student t unless skewed (skewtest z ≥ 1.645), then gamma when the logarithms lean left (their z ≤ −1.645), Johnson’s t when they lean right (z ≥ 1.645), else the log scale', () => {
+    const z = 1.6448536269514722;
+    const want = c.z < z ? 't' : c.logZ <= -z ? 'gamma' : c.logZ >= z ? 'johnson-t' : 'cox';
     expect(chooseMeasurementMethod(s).method).toBe(want);
   });
 });
