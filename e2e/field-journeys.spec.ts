@@ -292,6 +292,15 @@ test('pass/fail journey: cracked welds in a lot of 200 against an entered limit,
   await screenshot(page, 'log-pass-fail');
   await openTab(page, 'Field');
   await expectMatchesCore(page, coreAssess(counted, flags), GAP);
+  // the standard rule checks a limit at 1 − 0.9·0.7·5 % = 96.85 % (src/stop/standard-level.ts): one defect in
+  // 17 items is not yet enough; the bound for the lot of 200 drops below 25 % at the 19th item (the core's own
+  // figures, compared at every entry)
+  for (const _ of [17, 18]) {
+    await item(0);
+    counted.push(0);
+    await expectMatchesCore(page, coreAssess(counted, flags), GAP);
+    await expect(page.getByTestId('verdict')).toHaveText('keep going');
+  }
   await item(0);
   counted.push(0);
   await expectMatchesCore(page, coreAssess(counted, flags), GAP);
