@@ -170,9 +170,12 @@ test('two phones offline, then synced: the same pooled verdict on both, equal to
   // alone, each phone is below the crew's minimum
   await expect(a.page.getByTestId('n')).toHaveText('8');
 
-  // signal again: both sync by themselves
+  // signal again: both sync by themselves (each pushes its own entries) …
   await a.ctx.setOffline(false);
   await b.ctx.setOffline(false);
+  for (const p of [a.page, b.page])
+    await expect(p.getByTestId('crew-chip')).toHaveText('Crew · synced', { timeout: 30_000 });
+  // … and opening the crew panel fetches what the other pushed
   for (const p of [a.page, b.page]) {
     dialog = await openCrew(p);
     await expect(dialog.getByTestId('crew-n')).toHaveText('n 16 from 2 phones', { timeout: 30_000 });

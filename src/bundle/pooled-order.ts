@@ -31,7 +31,7 @@ export function pooledOrder<E extends ObservationRecord>(events: readonly E[]): 
   const ranked: { e: E; rank: number }[] = [];
   for (const own of byDevice.values()) {
     own.sort((a, b) => a.seq - b.seq || byText(a.id, b.id));
-    own.forEach((e, rank) => ranked.push({ e, rank }));
+    for (const [rank, e] of own.entries()) ranked.push({ e, rank });
   }
   ranked.sort((a, b) => a.rank - b.rank || byText(a.e.device, b.e.device) || byText(a.e.id, b.e.id));
   return ranked.map((r) => r.e);

@@ -18,6 +18,7 @@ import { join } from 'node:path';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { ObservationRecord, StudyRecord } from '../../src/model/records.ts';
+import { MIGRATIONS } from '../../src/server/migrations.ts';
 import { API_PREFIX } from '../../src/sync/protocol.ts';
 import { databaseUrl, dropSchema, entriesOf, newShareKey, newStudy } from './harness.ts';
 
@@ -272,7 +273,7 @@ describe.each(places)('faults on a real server process on $name', ({ make }) => 
       await c.connect();
       const rows = await c.query(`select version from ${place.env.DATABASE_SCHEMA}.schema_migrations`);
       await c.end();
-      expect(rows.rows.map((r) => r.version)).toEqual([1]);
+      expect(rows.rows.map((r) => r.version)).toEqual(MIGRATIONS.map((m) => m.version));
     } else {
       expect(up.length).toBe(1);
       const refused = [one, two].find((r) => r.status === 'rejected') as PromiseRejectedResult;

@@ -57,7 +57,10 @@ describe('mergeBundles', () => {
     expect(order((await merged(A, late)).bundle.events)).toEqual(order(once.bundle.events));
     expect(order((await merged(late, A)).bundle.events)).toEqual(order(once.bundle.events));
     // a third phone pooled into the already-merged log: A and B keep their interleaving
-    const c = await makeBundle(st, entries(st, [7], 'phone-C', 9, 0, () => ({ label: 'Q20' })));
+    const c = await makeBundle(
+      st,
+      entries(st, [7], 'phone-C', 9, 0, () => ({ label: 'Q20' })),
+    );
     const again = order((await merged(once.bundle, c)).bundle.events);
     expect(again.filter((x) => !x.startsWith('phone-C'))).toEqual(order(once.bundle.events));
     expect(again.indexOf('phone-C:Q20')).toBe(2);

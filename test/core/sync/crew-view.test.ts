@@ -42,7 +42,7 @@ function phoneLog(
 function deal<T>(points: readonly T[]): [T[], T[], T[]] {
   const out: [T[], T[], T[]] = [[], [], []];
   const pattern = [0, 0, 1, 2, 1, 0, 2];
-  points.forEach((p, i) => out[pattern[i % pattern.length]!]!.push(p));
+  for (const [i, p] of points.entries()) out[pattern[i % pattern.length]!]!.push(p);
   return out;
 }
 
