@@ -73,9 +73,13 @@ export function useSaver(props: PadProps, padKey: string, dirty: boolean, note: 
   }, [padKey, dirty]);
   useEffect(() => () => setHalfTyped(padKey, false), [padKey]);
   async function commit(entry: NewEntry, onDone: () => void, what: string, text: string) {
+    // The write is asked for before "Saving…" is drawn: the storage opens its transaction in the first
+    // microtask, ahead of the re-render that setBusy queues, so the commit runs while the frame is drawn
+    // instead of after it. The word still shows in the frame after the tap.
+    const saving = props.onSave(text ? { ...entry, note: text } : entry);
     setBusy(true);
     try {
-      const saved = await props.onSave(text ? { ...entry, note: text } : entry);
+      const saved = await saving;
       onDone();
       note.clear();
       setMsg({
