@@ -181,6 +181,11 @@ test('two phones offline, then synced: the same pooled verdict on both, equal to
     await expect(dialog.getByTestId('crew-n')).toHaveText('n 16 from 2 phones', { timeout: 30_000 });
     await expect(p.getByTestId('crew-chip')).toContainText('synced');
   }
+  // each phone's studies list says where the shared study's sync stands
+  await b.page.goto('/');
+  await expect(b.page.getByTestId('study-sync')).toHaveText(/^Crew · synced · last sync \d\d:\d\d$/);
+  await b.page.goto(`/#/s/${studyId}`);
+  await openCrew(b.page);
   const verdictA = await a.page.getByTestId('crew-verdict').textContent();
   const estimateA = await a.page.getByTestId('crew-estimate').textContent();
   expect(await b.page.getByTestId('crew-verdict').textContent()).toBe(verdictA);

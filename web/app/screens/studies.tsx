@@ -1,7 +1,7 @@
 /** The studies list: verdict and n per study, open, duplicate the setup, archive (never delete). */
 import { useEffect, useState } from 'preact/hooks';
 import type { Assessment } from '../../core.ts';
-import { kindWords, targetWords } from '../../core-light.ts';
+import { kindWords, syncLine, targetWords } from '../../core-light.ts';
 import { loadCore } from '../../core-loader.ts';
 import { device, persistState, settings, updateSettings } from '../../state/app-state.ts';
 import { StudySession } from '../../state/session.ts';
@@ -11,6 +11,7 @@ import { ensurePersistence } from '../../storage/meta.ts';
 import { listObservations } from '../../storage/observations.ts';
 import type { StoredStudy } from '../../storage/schema.ts';
 import { listStudies, setArchived } from '../../storage/studies.ts';
+import { syncStatus } from '../../sync/status.ts';
 import { TopBar } from '../components/chrome.tsx';
 import { verdictClass } from '../components/verdict.tsx';
 import { studySep } from '../number-style.ts';
@@ -75,6 +76,8 @@ export function StudiesScreen({ archived }: { archived: boolean }) {
   const [error, setError] = useState<string | null>(null);
   const [tick, setTick] = useState(0);
   const s = useStore(settings);
+  // each shared study's sync state (set by web/sync for linked studies only)
+  const crew = useStore(syncStatus);
   useEffect(() => {
     loadRows()
       .then(setRows)
@@ -136,6 +139,11 @@ export function StudiesScreen({ archived }: { archived: boolean }) {
               )}
               {r.study.demo && <span class="tag">invented demo data</span>}
               {r.notExported > 0 && <span class="tag">{r.notExported} not yet exported</span>}
+              {crew[r.study.id] && (
+                <span class="tag" data-testid="study-sync">
+                  Crew · {syncLine(crew[r.study.id]!)}
+                </span>
+              )}
             </a>
             <div class="card-actions">
               <a class="btn" href={href.newStudy(r.study.id, 'duplicate')}>
