@@ -13,9 +13,14 @@ const STUDY_FLAGS_TEXT = `Study flags (assess, bundle, replay):
                        limit target and "two", the bound on the estimate's side is checked: the upper
                        bound when the estimate is below the limit, the lower bound when above.
   --method NAME        interval method by its published name (default: the data kind's default)
-                       measurement: ${METHODS_BY_KIND.measurement.join(', ')} (default t)
+                       measurement: ${METHODS_BY_KIND.measurement.join(', ')} (default auto)
+                         auto       chosen from the data after every entry by D'Agostino's skewness test on the
+                                    values and their logarithms: t, johnson-t, gamma or cox; the choice and its
+                                    reason are in details.methodChoice
                          t          Student t (with the finite population correction when --population is given)
-                         cox        modified Cox, log scale (Olsson 2005: t quantile, 2(n−1)) — positive skewed data
+                         johnson-t  Johnson's (1978) modified t, moved for the skewness — skewed data with zeros
+                         gamma      gamma-based (Grice & Bain 1980) — skewed positive data with left-skewed logs
+                         cox        modified Cox, log scale (Olsson 2005: t quantile, 2(n−1)) — lognormal-like data
                          land       Land's exact method, log scale (computed by quadrature) — lognormal data vs a limit
                          chebyshev  Chebyshev bound from the mean and SD — strongly skewed, distribution unclear
                        count: ${METHODS_BY_KIND.count.join(', ')}

@@ -71,10 +71,18 @@ export function countEstimator(summary: RunningSummary, setup: AnalysisSetup): E
       details.overdispersed = test.overdispersed;
       if (variance > m) details.negBinomialK = (m * m) / (variance - m);
     }
+    // the same shape as the measurements' choice (src/assess/method-choice.ts), so every surface words both
     if (setup.method === undefined)
-      details.methodChoice = overdispersed
-        ? 'Student t: the counts are more clumped than Poisson (index-of-dispersion test, 5 %)'
-        : 'exact Poisson: the counts are not significantly more clumped than Poisson (index-of-dispersion test, 5 %)';
+      details.methodChoice = {
+        method: overdispersed ? 't' : 'poisson-exact',
+        reason: overdispersed
+          ? 'the counts are more clumped than Poisson (index-of-dispersion test, 5 %): Student t'
+          : 'the counts are not significantly more clumped than Poisson (index-of-dispersion test, 5 %): the exact Poisson interval',
+        criterion:
+          test === null
+            ? { n }
+            : { n, dispersionIndex: test.index, statistic: test.statistic, critical: test.critical },
+      };
     if (setup.plotArea !== undefined && n >= 1) {
       details.plotArea = setup.plotArea;
       details.density = m / setup.plotArea;
