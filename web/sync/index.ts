@@ -23,8 +23,12 @@ export function syncSoon(studyId: string, reason: Reason): Promise<void> {
 }
 
 async function syncAll(reason: Reason): Promise<void> {
-  const [{ listLinks }, m] = await Promise.all([import('../storage/crew.ts'), engine()]);
-  for (const link of await listLinks()) void m.syncStudy(link.studyId, reason).catch(() => undefined);
+  const { listLinks } = await import('../storage/crew.ts');
+  const links = await listLinks();
+  // a phone with no shared study never loads the sync engine
+  if (links.length === 0) return;
+  const m = await engine();
+  for (const link of links) void m.syncStudy(link.studyId, reason).catch(() => undefined);
 }
 
 const debounce = new Map<string, ReturnType<typeof setTimeout>>();
@@ -44,7 +48,13 @@ export function startSync(): () => void {
   });
   const online = () => void syncAll('online').catch(() => undefined);
   window.addEventListener('online', online);
-  void syncAll('open').catch(() => undefined);
+  // the start's sync waits until the first screen is drawn and the phone is idle: it must not compete
+  // with the cold start for the storage or the main thread
+  const idle = (globalThis as { requestIdleCallback?: (fn: () => void, o?: { timeout: number }) => void })
+    .requestIdleCallback;
+  const first = () => void syncAll('open').catch(() => undefined);
+  if (idle) idle(first, { timeout: 5_000 });
+  else setTimeout(first, 1_000);
   return () => {
     off();
     window.removeEventListener('online', online);
