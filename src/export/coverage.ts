@@ -152,14 +152,24 @@ export function gridSizes(kind: DataKind): number[] {
 }
 
 /**
- * The benchmark's grid cells per data kind, in words (as coverage.md names them; "targets needing about
- * N entries" = the cells' n*, the known-σ size).
+ * The benchmark's grid cells per data kind, in words, from the rows themselves: the data models (a cell is
+ * named "model · target"), the targets, and "targets needing about N entries" (the cells' n*, the known-σ size).
  */
-const sizes = (kind: DataKind) => `targets needing about ${gridSizes(kind).join(' and ')} entries`;
+function gridWords(kind: DataKind): string {
+  const rows = COVERAGE_RUN.grid.filter((r) => r.kind === kind);
+  const part = (i: number) => [
+    ...new Set(rows.map((r) => r.cell.split(' · ')[i]).filter((x): x is string => x !== undefined)),
+  ];
+  const targets = part(1);
+  const list = (xs: string[]) =>
+    xs.length <= 1 ? (xs[0] ?? '') : `${xs.slice(0, -1).join(', ')} and ${xs.at(-1)}`;
+  return `${list(part(0))}${targets.length > 0 ? `, with ${list(targets)} targets` : ''}; ${sizes(kind)}`;
+}
+const sizes = (kind: DataKind) => `targets needing about ${gridSizes(kind).join(', ')} entries`;
 export const GRID_WORDS: Record<DataKind, string> = {
-  measurement: `normal data, and lognormal data (CV 0.5, 1, 2) with Cox’s interval; ${sizes('measurement')}`,
-  count: `Poisson λ = 2, negative binomial m = 2 with k = 0.5 and 2; ${sizes('count')}`,
-  'pass-fail': `p = 0.02, 0.1 and 0.5; ${sizes('pass-fail')}`,
+  measurement: gridWords('measurement'),
+  count: gridWords('count'),
+  'pass-fail': gridWords('pass-fail'),
 };
 
 const KIND_WORDS: Record<DataKind, string> = {
