@@ -2,10 +2,9 @@
  * The stopping rules' measured coverage, for the report's method statement.
  *
  * Source: this project's coverage benchmark (test/bench/coverage-bench.ts), whose run is committed as
- * numbers in coverage.json beside this file (written by `npm run bench:coverage -- --out
- * test/bench/coverage.md --json src/export/coverage.json`; the run of 2026-12-01 was converted once from
- * its Markdown table by test/bench/coverage-md-to-json.mjs) and as a readable table with notes in
- * test/bench/coverage.md. Nothing here is typed by hand: the figures below are summarised from the JSON.
+ * numbers in coverage.json beside this file (written in the same run as the readable table with notes,
+ * test/bench/coverage.md: `npm run bench:coverage -- --r 10000 --methods --out test/bench/coverage.md --json
+ * src/export/coverage.json`). Nothing here is typed by hand: the figures below are summarised from the JSON.
  * A rule or data kind without a figure gives null, and the report then says "not yet measured".
  *
  * Summary per rule and data kind: the lowest and highest realised coverage (percent, as the benchmark
