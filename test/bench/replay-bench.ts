@@ -66,7 +66,7 @@ interface Cell {
 }
 
 const METHODS: Record<DataKind, (MethodName | undefined)[]> = {
-  measurement: ['t', 'cox', 'land', 'chebyshev'],
+  measurement: [undefined, 't', 'johnson-t', 'gamma', 'cox', 'land', 'chebyshev'],
   count: [undefined, 't', 'poisson-exact', 'quasi-poisson'],
   'pass-fail': ['wilson', 'wilson-cc', 'jeffreys', 'clopper-pearson', 'agresti-coull'],
 };
