@@ -218,6 +218,9 @@ test('two phones offline, then synced: the same pooled verdict on both, equal to
   await a.page.goto(`/#/s/${studyId}`);
   for (const size of SIZES) {
     await a.page.setViewportSize({ width: size.width, height: size.height });
+    // the screen as it opens at this size (the last size's taps scrolled its pane)
+    await a.page.reload();
+    await expect(a.page.getByTestId('verdict')).toBeVisible();
     await a.page.evaluate((k) => {
       document.documentElement.style.fontSize = k === 1 ? '' : `${17 * k}px`;
     }, size.text);

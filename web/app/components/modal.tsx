@@ -14,7 +14,9 @@ export function Modal(props: { title: string; onClose(): void; children: Compone
     document.addEventListener('keydown', onKey);
     return () => {
       document.removeEventListener('keydown', onKey);
-      opener?.focus?.();
+      // without scrolling: the opener may sit in the field screen's scrolling pane, and scrolling it into
+      // view there would push the verdict out of sight
+      opener?.focus?.({ preventScroll: true });
     };
   }, []);
   return (
