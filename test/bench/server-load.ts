@@ -13,12 +13,15 @@
  *        --out PATH (test/bench/server-load; writes PATH.json and PATH.md)
  */
 import { type ChildProcess, spawn } from 'node:child_process';
-import { randomBytes, randomUUID } from 'node:crypto';
+import { randomUUID } from 'node:crypto';
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { cpus, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { parseArgs } from 'node:util';
 import pg from 'pg';
+import { API_PREFIX as API } from '../../src/sync/protocol.ts';
+import { newShareKey, newStudy } from '../server/harness.ts';
 
 interface Flags {
   phones: number;
@@ -28,29 +31,30 @@ interface Flags {
   out: string;
 }
 
+/** The flags by Node's own parser (strict: an unknown flag or a missing value is refused), then checked. */
 function parseFlags(argv: string[]): Flags {
-  const flags: Flags = {
-    phones: 50,
-    entries: 200,
-    batch: 20,
-    concurrency: 10,
-    out: 'test/bench/server-load',
-  };
-  for (let i = 0; i < argv.length; i += 2) {
-    const name = argv[i]!.replace(/^--/, '');
-    const value = argv[i + 1];
-    if (value === undefined) throw new Error(`${argv[i]}: needs a value`);
-    if (name === 'out') flags.out = value;
-    else if (name === 'phones' || name === 'entries' || name === 'batch' || name === 'concurrency') {
-      const n = Number(value);
-      if (!Number.isInteger(n) || n < 1) throw new Error(`--${name}: a whole number ≥ 1, got "${value}"`);
-      flags[name] = n;
-    } else throw new Error(`${argv[i]}: unknown flag`);
+  const counts = ['phones', 'entries', 'batch', 'concurrency'] as const;
+  const { values } = parseArgs({
+    args: argv,
+    strict: true,
+    options: {
+      out: { type: 'string', default: 'test/bench/server-load' },
+      phones: { type: 'string' },
+      entries: { type: 'string' },
+      batch: { type: 'string' },
+      concurrency: { type: 'string' },
+    },
+  });
+  const flags: Flags = { phones: 50, entries: 200, batch: 20, concurrency: 10, out: values.out };
+  for (const name of counts) {
+    const value = values[name];
+    if (value === undefined) continue;
+    const n = Number(value);
+    if (!Number.isInteger(n) || n < 1) throw new Error(`--${name}: a whole number ≥ 1, got "${value}"`);
+    flags[name] = n;
   }
   return flags;
 }
-
-const API = '/api/v1';
 
 function startServer(env: NodeJS.ProcessEnv, data: string): Promise<{ child: ChildProcess; base: string }> {
   const script = join(dirname(fileURLToPath(import.meta.url)), 'server.mjs');
@@ -105,21 +109,7 @@ async function main(): Promise<void> {
   const backend = url ? 'PostgreSQL' : 'PGlite';
   const { child, base } = await startServer(env, data);
   try {
-    const study = {
-      id: randomUUID(),
-      name: 'Load benchmark',
-      createdAt: '2026-05-04T08:00:00+02:00',
-      setup: {
-        kind: 'measurement',
-        level: 0.95,
-        sided: 'two',
-        rule: 'standard',
-        min: 10,
-        target: { kind: 'margin', value: 0.01 },
-        unit: 'mg/kg',
-      },
-      version: 1,
-    };
+    const study = { ...newStudy({ unit: 'mg/kg' }), name: 'Load benchmark' };
     const devices = Array.from(
       { length: flags.phones },
       (_, i) => `bench-phone-${String(i).padStart(3, '0')}`,
@@ -128,7 +118,7 @@ async function main(): Promise<void> {
       base,
       'POST',
       '/studies',
-      { study, device: devices[0], shareKey: randomBytes(32).toString('base64url') },
+      { study, device: devices[0], shareKey: newShareKey() },
       { 'x-forwarded-for': '10.9.0.0' },
     );
     const tokens = [shared.token as string];

@@ -11,26 +11,13 @@
  */
 import type { Hono } from 'hono';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { assess } from '../../src/assess/index.ts';
-import { makeBundle } from '../../src/bundle/bundle.ts';
-import { pointsOf } from '../../src/bundle/events.ts';
-import { mergeBundles } from '../../src/bundle/merge.ts';
-import type { ObservationRecord, StudyRecord } from '../../src/model/records.ts';
+import type { ObservationRecord } from '../../src/model/records.ts';
 import { createApp } from '../../src/server/app.ts';
 import type { Db } from '../../src/server/db.ts';
 import { crewView } from '../../src/sync/crew-view.ts';
+import { mergedAssessment } from '../support/merged.ts';
 import { heat } from '../support/published-data.ts';
 import { backends, client, entriesOf, newShareKey, newStudy, testAddress, voidOf } from './harness.ts';
-
-async function mergedAssessment(st: StudyRecord, logs: ObservationRecord[][]) {
-  let bundle = await makeBundle(st, logs[0]!);
-  for (const log of logs.slice(1)) {
-    const r = await mergeBundles(bundle, await makeBundle(st, log));
-    if (!r.ok) throw new Error(r.message);
-    bundle = r.bundle;
-  }
-  return assess(pointsOf(bundle.events), st.setup);
-}
 
 describe.each(backends())('pooled figures through the crew server on $name', (backend) => {
   let db: Db;

@@ -113,6 +113,18 @@ async function call(base: string, method: string, path: string, body?: unknown, 
   return { status: res.status, body: (await res.json()) as any };
 }
 
+/** A new study shared by phone-A: the study and its token (the share must succeed). */
+async function shareNew(base: string): Promise<{ st: StudyRecord; token: string }> {
+  const st = newStudy();
+  const shared = await call(base, 'POST', '/studies', {
+    study: st,
+    device: 'phone-A',
+    shareKey: newShareKey(),
+  });
+  expect(shared.status).toBe(201);
+  return { st, token: shared.body.token as string };
+}
+
 /** Sends a push and calls `cut` once the whole request is written; resolves with the status or the error. */
 function pushThenCut(
   base: string,
@@ -185,14 +197,7 @@ describe.each(places)('faults on a real server process on $name', ({ make }) => 
   it('killed (SIGKILL) with a batch in flight, started again, the batch pushed again: every event stored exactly once', async () => {
     const place = fresh();
     let server = await start(place);
-    const st = newStudy();
-    const shared = await call(server.base, 'POST', '/studies', {
-      study: st,
-      device: 'phone-A',
-      shareKey: newShareKey(),
-    });
-    expect(shared.status).toBe(201);
-    const token = shared.body.token as string;
+    const { st, token } = await shareNew(server.base);
     const all = batches(st, 4);
     const outcomes: string[] = [];
     const delays = [0, 3, 15, 60];
@@ -220,13 +225,7 @@ describe.each(places)('faults on a real server process on $name', ({ make }) => 
   it('network cut after the request was sent: the retry stores what is missing, nothing twice', async () => {
     const place = fresh();
     const server = await start(place);
-    const st = newStudy();
-    const shared = await call(server.base, 'POST', '/studies', {
-      study: st,
-      device: 'phone-A',
-      shareKey: newShareKey(),
-    });
-    const token = shared.body.token as string;
+    const { st, token } = await shareNew(server.base);
     const all = batches(st, 3);
     const delays = [0, 5, 50];
     for (const [i, batch] of all.entries()) {
@@ -245,13 +244,7 @@ describe.each(places)('faults on a real server process on $name', ({ make }) => 
   it('SIGTERM with a push in flight: the push is answered and stored, then the process exits 0', async () => {
     const place = fresh();
     const server = await start(place);
-    const st = newStudy();
-    const shared = await call(server.base, 'POST', '/studies', {
-      study: st,
-      device: 'phone-A',
-      shareKey: newShareKey(),
-    });
-    const token = shared.body.token as string;
+    const { st, token } = await shareNew(server.base);
     const [batch] = batches(st, 1);
     const outcome = await pushThenCut(server.base, st.id, token, batch!, () => server.child.kill('SIGTERM'));
     expect(outcome).toBe('answered 200');

@@ -8,13 +8,10 @@
  * figures are checked against references in test/core and test/surfaces).
  */
 import { describe, expect, it } from 'vitest';
-import { assess } from '../../../src/assess/index.ts';
-import { makeBundle } from '../../../src/bundle/bundle.ts';
-import { pointsOf } from '../../../src/bundle/events.ts';
-import { mergeBundles } from '../../../src/bundle/merge.ts';
 import { pooledOrder } from '../../../src/bundle/pooled-order.ts';
 import type { ObservationRecord, StudyRecord } from '../../../src/model/records.ts';
 import { crewView } from '../../../src/sync/crew-view.ts';
+import { mergedAssessment, mergedBundle } from '../../support/merged.ts';
 import { heat, strata, strataEntries } from '../../support/published-data.ts';
 import { study, uuid } from '../bundle/make.ts';
 
@@ -44,16 +41,6 @@ function deal<T>(points: readonly T[]): [T[], T[], T[]] {
   const pattern = [0, 0, 1, 2, 1, 0, 2];
   for (const [i, p] of points.entries()) out[pattern[i % pattern.length]!]!.push(p);
   return out;
-}
-
-async function mergedAssessment(st: StudyRecord, logs: ObservationRecord[][]) {
-  let bundle = await makeBundle(st, logs[0]!);
-  for (const log of logs.slice(1)) {
-    const r = await mergeBundles(bundle, await makeBundle(st, log));
-    if (!r.ok) throw new Error(r.message);
-    bundle = r.bundle;
-  }
-  return assess(pointsOf(bundle.events), st.setup);
 }
 
 function heatCrew(shiftB: number) {
@@ -130,12 +117,7 @@ describe('crew view = merge + assess', () => {
 
   it('reads the events in the order merge writes them (sequential rules read the order)', async () => {
     const { st, logs } = heatCrew(-365);
-    let bundle = await makeBundle(st, logs[0]!);
-    for (const log of logs.slice(1)) {
-      const r = await mergeBundles(bundle, await makeBundle(st, log));
-      if (!r.ok) throw new Error(r.message);
-      bundle = r.bundle;
-    }
+    const bundle = await mergedBundle(st, logs);
     const ids = pooledOrder(logs.flat()).map((e) => e.id);
     expect(bundle.events.map((e) => e.id)).toEqual(ids);
     // the clock-free order differs from the clocks' order here (B's clock is a year behind)
