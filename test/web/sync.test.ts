@@ -14,6 +14,7 @@ import 'fake-indexeddb/auto';
 import { IDBFactory } from 'fake-indexeddb';
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { crewView, MAX_BATCH_EVENTS, type ObservationRecord, type StudySetup } from '../../src/index.ts';
+import { syncLine } from '../../src/words/crew.ts';
 import { getLink, listCrewEvents } from '../../web/storage/crew.ts';
 import { resetDbForTests } from '../../web/storage/db.ts';
 import { deviceId } from '../../web/storage/meta.ts';
@@ -22,7 +23,7 @@ import { createStudy, getStudy } from '../../web/storage/studies.ts';
 import { joinCrew, shareStudy } from '../../web/sync/crew-actions.ts';
 import { deps, setSyncDeps } from '../../web/sync/deps.ts';
 import { BACKOFF_CAP_MS, resetSyncForTests, resumeSync, syncStudy } from '../../web/sync/engine.ts';
-import { statusLine, syncStatus } from '../../web/sync/status.ts';
+import { syncStatus } from '../../web/sync/status.ts';
 import { crewViewOf } from '../../web/sync/view.ts';
 import zarr13 from '../fixtures/stats-zarr13.json';
 import { FakeCrewServer } from './sync-fake-server.ts';
@@ -142,7 +143,7 @@ describe('push', () => {
     expect(server.events.map((e) => e.seq)).toEqual(Array.from({ length: 450 }, (_, i) => i + 1));
     expect((await getLink(s.id))?.pushedSeq).toBe(450);
     expect(syncStatus.get()[s.id]).toMatchObject({ waiting: 0, offline: false });
-    expect(statusLine(syncStatus.get()[s.id]!)).toMatch(/^synced · last sync \d\d:\d\d$/);
+    expect(syncLine(syncStatus.get()[s.id]!)).toMatch(/^synced · last sync \d\d:\d\d$/);
     // nothing new: the next sync pushes nothing
     await syncStudy(s.id, 'manual');
     expect(pushes()).toHaveLength(3);
@@ -201,7 +202,7 @@ describe('failures', () => {
     delays.push(timers[0]!.ms);
     expect(delays).toEqual([2000, 4000, 8000, 16000, 32000, 64000, 128000, 256000, 300000, 300000]);
     expect(BACKOFF_CAP_MS).toBe(300000);
-    expect(statusLine(syncStatus.get()[id]!)).toMatch(/^offline — 2 waiting · last sync \d\d:\d\d$/);
+    expect(syncLine(syncStatus.get()[id]!)).toMatch(/^offline — 2 waiting · last sync \d\d:\d\d$/);
   });
 
   it('jitter: with random = 0 the wait is half the delay; a save does not cut a wait short', async () => {
@@ -240,7 +241,7 @@ describe('failures', () => {
     const stopped = (await getLink(id))?.stopped?.message;
     expect(stopped).toContain('Sync stopped');
     expect(stopped).toContain('event 1 is held with other content');
-    expect(statusLine(syncStatus.get()[id]!)).toBe(stopped);
+    expect(syncLine(syncStatus.get()[id]!)).toBe(stopped);
     expect(timers).toHaveLength(0); // no silent retry
     await syncStudy(id, 'save');
     await syncStudy(id, 'online');

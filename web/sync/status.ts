@@ -17,6 +17,3 @@ export function setStatus(studyId: string, s: SyncStatus | null): void {
   else next[studyId] = s;
   syncStatus.set(next);
 }
-
-/** The words for these states live with the app's other words (src/words/crew.ts). */
-export { clockTime, syncLine as statusLine, syncWord as statusWord } from '../core-light.ts';

@@ -6,9 +6,10 @@
  */
 import type { ComponentType } from 'preact';
 import { useEffect, useState } from 'preact/hooks';
+import { syncWord } from '../../core-light.ts';
 import { useStore } from '../../state/store.ts';
 import { watchStudy } from '../../sync/index.ts';
-import { statusWord, syncStatus } from '../../sync/status.ts';
+import { syncStatus } from '../../sync/status.ts';
 
 type PanelProps = { studyId: string; onClose(): void };
 
@@ -34,7 +35,7 @@ export function CrewChip({ studyId }: { studyId: string }) {
           setOpen(true);
         }}
       >
-        {s ? `Crew · ${statusWord(s)}` : 'Crew'}
+        {s ? `Crew · ${syncWord(s)}` : 'Crew'}
       </button>
       {open && Panel && <Panel studyId={studyId} onClose={() => setOpen(false)} />}
     </>

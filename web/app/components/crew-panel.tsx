@@ -6,14 +6,14 @@
  */
 import { useEffect, useState } from 'preact/hooks';
 import type { CrewPhone, CrewView } from '../../core.ts';
-import { formatCrewCode } from '../../core-light.ts';
+import { formatCrewCode, syncLine } from '../../core-light.ts';
 import { useStore } from '../../state/store.ts';
 import { getLink } from '../../storage/crew.ts';
 import type { CrewLink, StoredStudy } from '../../storage/schema.ts';
 import { getStudy } from '../../storage/studies.ts';
 import { crewPhones, newCode, revokePhone, shareStudy, stopCode } from '../../sync/crew-actions.ts';
 import { refreshStatus, resumeSync, syncStudy } from '../../sync/engine.ts';
-import { statusLine, syncStatus } from '../../sync/status.ts';
+import { syncStatus } from '../../sync/status.ts';
 import { crewViewOf } from '../../sync/view.ts';
 import { CrewQr } from './crew-qr.tsx';
 import { CrewVerdict } from './crew-verdict.tsx';
@@ -95,7 +95,7 @@ export function CrewPanel({ studyId, onClose }: { studyId: string; onClose(): vo
           <>
             <div class="crew-sync">
               <p role="status" data-testid="crew-sync-status" class={stopped ? 'error' : ''}>
-                {status ? statusLine(status) : (stopped ?? 'checking…')}
+                {status ? syncLine(status) : (stopped ?? 'checking…')}
               </p>
               {stopped !== undefined ? (
                 <button
