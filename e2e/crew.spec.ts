@@ -29,6 +29,7 @@ const readings = zarr13.values.slice(0, 16);
 /** The phone sizes of e2e/screens.spec.ts (WCAG 2.2 SC 1.4.4 and 1.4.10). */
 const SIZES = [
   { name: '320x568', width: 320, height: 568, text: 1 },
+  { name: '390x844', width: 390, height: 844, text: 1 },
   { name: '844x390', width: 844, height: 390, text: 1 },
   { name: '390x844-text200', width: 390, height: 844, text: 2 },
 ] as const;
@@ -184,6 +185,9 @@ test('two phones offline, then synced: the same pooled verdict on both, equal to
   // each phone's studies list says where the shared study's sync stands
   await b.page.goto('/');
   await expect(b.page.getByTestId('study-sync')).toHaveText(/^Crew · synced · last sync \d\d:\d\d$/);
+  await b.page.getByRole('button', { name: 'Join a crew' }).click();
+  mkdirSync('test-results/screens/sizes', { recursive: true });
+  await b.page.screenshot({ path: 'test-results/screens/sizes/390x844-studies-crew.png', fullPage: true });
   await b.page.goto(`/#/s/${studyId}`);
   await openCrew(b.page);
   const verdictA = await a.page.getByTestId('crew-verdict').textContent();
