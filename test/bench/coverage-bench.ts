@@ -13,7 +13,8 @@
  * reads that same sequence.
  *
  * Flags: --r N (replicates per cell, default 10000: about 25 min of CPU with --methods), --quick (R = 2000),
- * --only PREFIX (the models whose name starts so; no SPRT table), --methods (each measurement method too, for the
+ * --only PREFIX (the models whose name starts so; no SPRT table), --target KIND (only margin, relative or limit
+ * cells), --calibration-only (the default standard rule alone, for --calibration), --methods (each measurement method too, for the
  * choice in src/assess/method-choice.ts), --out FILE (markdown), --json FILE (the same figures as numbers, the
  * shape CoverageRun of src/export/coverage.ts, which the report reads from src/export/coverage.json),
  * --calibration FILE ("how many more" against the remaining entries at n = 10, 20, 40: markdown and a .json
@@ -58,6 +59,10 @@ const round = (x: number, d: number) => Number(x.toFixed(d));
 const ONLY = flag('only');
 const CAL_OUT = flag('calibration');
 const METHODS = args.includes('--methods');
+/** --target KIND: only the cells with that target (margin, relative, limit). */
+const TARGET = flag('target');
+/** --calibration-only: run the default standard rule alone (the calibration table reads nothing else). */
+const CAL_ONLY = args.includes('--calibration-only');
 /** The calibration table's rows (item 4), for --calibration. */
 const calRows: { cell: string; nStar: number; stats: CalibrationStats[] }[] = [];
 
@@ -193,6 +198,7 @@ function goalOf(s: RuleStats, rule: string): string {
 
 /** The setups run in a cell: the rules as offered, the old defaults, and (--methods) each measurement method. */
 function setupsOf(cell: Cell): { label: string; setup: AnalysisSetup }[] {
+  if (CAL_ONLY) return [{ label: 'standard', setup: { ...cell.base, rule: 'standard' } }];
   const out: { label: string; setup: AnalysisSetup }[] = (['naive', 'standard', 'strict'] as RuleName[])
     // strict does not decide against a limit for measurements and counts (rule-warnings.ts)
     .filter((rule) => !(rule === 'strict' && cell.target === 'limit' && cell.kind !== 'pass-fail'))
@@ -217,7 +223,9 @@ function grid(): string {
   print('| cell | n* | rule | coverage ± MC | mean n/n* | n p10/p50/p90 | at min | capped | goal |');
   print('|---|---|---|---|---|---|---|---|---|');
   const shortfalls: string[] = [];
-  const cells = buildGrid(ONLY === undefined ? undefined : (m) => m.name.startsWith(ONLY));
+  const cells = buildGrid(ONLY === undefined ? undefined : (m) => m.name.startsWith(ONLY)).filter(
+    (cell) => TARGET === undefined || cell.target === TARGET,
+  );
   for (const cell of cells) {
     const t0 = Date.now();
     const { stats, calibration } = runSetups(cell, setupsOf(cell), R, CAL_OUT ? 'standard' : undefined);
@@ -283,7 +291,7 @@ function grid(): string {
     },
   ];
   let seed = 9000;
-  for (const c of ONLY === undefined ? sprtCells : []) {
+  for (const c of ONLY === undefined && TARGET === undefined && !CAL_ONLY ? sprtCells : []) {
     const setup: AnalysisSetup = {
       kind: c.kind,
       level: LEVEL,

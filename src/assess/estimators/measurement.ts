@@ -5,6 +5,8 @@
  */
 import type { AnalysisSetup, MeasurementMethod, MethodChoice, Sided, Target } from '../../model/types.ts';
 import { boxVarianceDf } from '../../plan/box-variance-df.ts';
+import { tQuantileAtRealDf } from '../../plan/fixed-point-sample-size.ts';
+import { projectLimitDecision } from '../../plan/limit-decision-projection.ts';
 import { sigmaQuantile as sigmaQ } from '../../plan/chi-square-sigma-limits.ts';
 import { logScaleRelativeSampleSize } from '../../plan/log-scale-relative-sample-size.ts';
 import { projectMeasurement } from '../../plan/measurement-projection.ts';
@@ -173,12 +175,20 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
       }
       case 'limit': {
         if (estimate === null) return null;
-        const d = Math.abs(estimate - target.value);
-        if (!(d > 0)) return null;
-        const r = projectMeasurement({ n, s: sd, d, p, ...withPop, ...withMult });
+        const c =
+          multiplier === undefined ? (total: number) => tQuantileAtRealDf(p, total - 1) : () => multiplier;
+        const r = projectLimitDecision({
+          n,
+          distance: estimate - target.value,
+          // σ's median rather than s, as for the other targets: s under-reads σ more often than not
+          spread: sigmaQ(sd, n, 0.5, summary.kurtosis === null ? n - 1 : boxVarianceDf(n, summary.kurtosis)),
+          multiplier: c,
+          ...(population === undefined ? {} : { population }),
+        });
         return {
           ...r,
-          basis: 'n at which the one-sided bound would clear the limit if the mean and SD stay as they are',
+          basis:
+            'predictive distribution of the mean: the total at which the one-sided bound clears the limit, median and 10th–90th percentiles',
         };
       }
     }

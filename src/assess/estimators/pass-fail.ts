@@ -4,6 +4,7 @@
  * bound 1 − α^{1/n} for upper bounds; with a finite lot, exact hypergeometric bounds. Glue.
  */
 import type { AnalysisSetup, PassFailMethod, Sided, Target } from '../../model/types.ts';
+import { projectLimitDecision } from '../../plan/limit-decision-projection.ts';
 import { proportionSampleSize, zeroAcceptanceSampleSize } from '../../plan/proportion-sample-size.ts';
 import { agrestiCoullInterval } from '../../stats/agresti-coull-interval.ts';
 import { clopperPearsonInterval } from '../../stats/clopper-pearson-interval.ts';
@@ -106,15 +107,44 @@ export function passFailEstimator(summary: RunningSummary, setup: AnalysisSetup)
       }
       return proportionSampleSize({ p: pp, target: target.kind, value: target.value, z, ...withPop });
     };
-    if (target.kind === 'limit' && x === 0 && target.value > 0 && target.value < 1) {
-      const n0 = zeroAcceptanceSampleSize(target.value, 1 - level);
-      const nz = lot === undefined ? n0 : n0 / (1 + (n0 - 1) / lot);
+    if (target.kind === 'limit' && target.value > 0 && target.value < 1 && n >= 2) {
+      // the predictive distribution of the rate after N items (src/plan/limit-decision-projection.ts): the
+      // spread from the Jeffreys posterior mean (x + ½)/(n + 1), so that no counted outcome yet still leaves
+      // room for one; the bound's spread is the limit's own √(L(1 − L)) (Wilson's score bound)
+      const jeffreys = (x + 0.5) / (n + 1);
+      const r = projectLimitDecision({
+        n,
+        distance: x / n - target.value,
+        spread: Math.sqrt(jeffreys * (1 - jeffreys)),
+        boundSpread: Math.sqrt(target.value * (1 - target.value)),
+        multiplier: () => z,
+        ...withPop,
+      });
+      if (x === 0) {
+        // no counted outcome: the exact bound 1 − α^(1/n) decides at n = ln α / ln(1 − L) if none turns up,
+        // the earliest a decision can come
+        const n0 = zeroAcceptanceSampleSize(target.value, 1 - level);
+        const nz = lot === undefined ? n0 : n0 / (1 + (n0 - 1) / lot);
+        return {
+          likely: Math.max(nz, r.likely),
+          low: nz,
+          high: Math.max(nz, r.high),
+          assured: Math.max(nz, r.assured),
+          basis:
+            'zero-acceptance: n = ln α / ln(1 − L) if no counted outcome turns up; above it the predictive distribution of the rate',
+        };
+      }
+      // the likely figure stays the plug-in one (the rate as observed): the predictive median, averaged over
+      // every rate the first items allow, promised quick decisions that rates near the limit do not give
+      // (test/bench/calibration.md)
+      const plugIn = at(x / n);
       return {
-        likely: nz,
-        low: nz,
-        high: Math.max(nz, at(band.upper)),
+        likely: Math.min(r.high, Math.max(r.low, plugIn)),
+        low: r.low,
+        high: r.high,
+        assured: Math.max(r.assured, Math.min(r.high, plugIn)),
         basis:
-          'zero-acceptance: n = ln α / ln(1 − L) if no counted outcome turns up; high end from the 90th percentile of p',
+          'n at which the one-sided Wilson bound clears the limit if the rate stays as observed, z²·L(1−L)/(p − L)²; range from the predictive distribution of the rate (10th–90th percentiles)',
       };
     }
     // a limit decision projects from the observed rate (the rate the decision is about), the others from the
