@@ -5,9 +5,9 @@
  */
 import type { AnalysisSetup, MeasurementMethod, MethodChoice, Sided, Target } from '../../model/types.ts';
 import { boxVarianceDf } from '../../plan/box-variance-df.ts';
+import { sigmaQuantile as sigmaQ } from '../../plan/chi-square-sigma-limits.ts';
 import { tQuantileAtRealDf } from '../../plan/fixed-point-sample-size.ts';
 import { projectLimitDecision } from '../../plan/limit-decision-projection.ts';
-import { sigmaQuantile as sigmaQ } from '../../plan/chi-square-sigma-limits.ts';
 import { logScaleRelativeSampleSize } from '../../plan/log-scale-relative-sample-size.ts';
 import { projectMeasurement } from '../../plan/measurement-projection.ts';
 import { chebyshevBound } from '../../stats/chebyshev-bound.ts';
