@@ -1,9 +1,10 @@
 /**
  * The statistics core (src/, with jstat) is its own chunk, so the app shell (screens, storage,
- * service-worker registration) stays within the 60 KB budget. web/main.tsx starts fetching it at once, in
- * parallel with the database open and the first render (it never blocks the first paint). Every screen that
- * shows figures loads a study from IndexedDB, which is asynchronous anyway, and awaits `loadCore()` on the
- * same path; the service worker precaches the chunk, so it is there offline.
+ * service-worker registration) stays within the 60 KB budget. It is loaded on first need: a screen that
+ * reads a whole log awaits `loadCore()` in parallel with its storage reads; the field screen opened from
+ * its running snapshot draws and enables Save without it and loads it after that first frame (its
+ * compiling and running is the largest piece of work at start). The service worker precaches the chunk,
+ * so it is there offline.
  *
  * Only type imports of ./core.ts are allowed elsewhere in web/: a value import would pull the whole core
  * back into the shell chunk. Light helpers with no statistics live in ./core-light.ts.
@@ -19,6 +20,11 @@ export function loadCore(): Promise<Core> {
     return m;
   });
   return pending;
+}
+
+/** The core if it has loaded, else null (nothing is started). */
+export function coreIfLoaded(): Core | null {
+  return ready;
 }
 
 /** The core, for code that only runs after a study was loaded through `loadCore()`. */

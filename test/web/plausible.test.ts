@@ -26,6 +26,19 @@ describe('modified z-score', () => {
     // 0.4, 0.4 → MAD 0.3; x = 4: 0.6745 × 1.5 / 0.3 = 3.3725 (inside 3.5)
     expect(modifiedZ(4, [2.1, 2.4, 2.6, 2.8, 2.9, 2.2])).toBeCloseTo(3.3725, 10);
   });
+  it('gives the same hand-worked figure whatever the order of the earlier values', () => {
+    // sorted 1, 2, 3, 4, 5, 6, 100 → median 4; deviations 3, 2, 1, 0, 1, 2, 96 → sorted 0, 1, 1, 2, 2, 3, 96
+    // → MAD 2 (the far value does not move it); x = 20: 0.6745 × 16 / 2 = 5.396. The field screen passes
+    // the values ascending (no sort on the tap path); the other orders take the sorting path.
+    for (const xs of [
+      [1, 2, 3, 4, 5, 6, 100],
+      [100, 6, 5, 4, 3, 2, 1],
+      [4, 100, 1, 6, 2, 5, 3],
+    ])
+      expect(modifiedZ(20, xs)).toBeCloseTo(5.396, 10);
+    // the even example above, ascending: 2.1, 2.2, 2.4, 2.6, 2.8, 2.9 → 3.3725
+    expect(modifiedZ(4, [2.1, 2.2, 2.4, 2.6, 2.8, 2.9])).toBeCloseTo(3.3725, 10);
+  });
   it('needs five earlier values and some spread', () => {
     expect(modifiedZ(9, earlier.slice(0, 4))).toBeNull();
     expect(modifiedZ(9, [3, 3, 3, 3, 3, 4])).toBeNull(); // MAD 0: no scale

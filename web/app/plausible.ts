@@ -26,11 +26,48 @@ function median(sorted: readonly number[]): number {
   return sorted.length % 2 ? (sorted[m] as number) : ((sorted[m - 1] as number) + (sorted[m] as number)) / 2;
 }
 
-/** The modified z-score of `x` against `earlier`, or null when the rule does not apply (n < 5, MAD = 0). */
+function isSorted(xs: readonly number[]): boolean {
+  for (let i = 1; i < xs.length; i++) if ((xs[i - 1] as number) > (xs[i] as number)) return false;
+  return true;
+}
+
+/**
+ * The MAD of ascending values around their median, without sorting: the deviations below the median
+ * (walking down) and above it (walking up) are two ascending runs, merged only as far as their middle.
+ * O(n) with no copy, so the field screen's tap path (the session keeps its values sorted) sorts nothing.
+ */
+function madOfSorted(sorted: readonly number[], med: number): number {
+  const n = sorted.length;
+  const m = n >> 1;
+  // next value below the median (walking down) and above it (walking up); an odd count's middle value is
+  // a deviation of 0, the smallest of all
+  let lo = m - 1;
+  let hi = n % 2 ? m + 1 : m;
+  const out: number[] = n % 2 ? [0] : [];
+  const need = m + 1; // enough of the smallest deviations to take their median
+  while (out.length < need) {
+    const down = lo >= 0 ? med - (sorted[lo] as number) : Number.POSITIVE_INFINITY;
+    const up = hi < n ? (sorted[hi] as number) - med : Number.POSITIVE_INFINITY;
+    if (down <= up) {
+      out.push(down);
+      lo--;
+    } else {
+      out.push(up);
+      hi++;
+    }
+  }
+  return n % 2 ? (out[m] as number) : ((out[m - 1] as number) + (out[m] as number)) / 2;
+}
+
+/**
+ * The modified z-score of `x` against `earlier` (any order; ascending, as the field screen passes them,
+ * needs no sort), or null when the rule does not apply (n < 5, MAD = 0).
+ */
 export function modifiedZ(x: number, earlier: readonly number[]): number | null {
   if (earlier.length < OUTLIER_MIN_N) return null;
-  const med = median([...earlier].sort((a, b) => a - b));
-  const mad = median(earlier.map((v) => Math.abs(v - med)).sort((a, b) => a - b));
+  const sorted = isSorted(earlier) ? earlier : [...earlier].sort((a, b) => a - b);
+  const med = median(sorted);
+  const mad = madOfSorted(sorted, med);
   if (!(mad > 0)) return null;
   return (0.6745 * (x - med)) / mad;
 }

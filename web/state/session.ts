@@ -9,7 +9,10 @@
  *
  * A session opened from a running snapshot (`fromSnapshot`, web/storage/snapshots.ts) holds the last
  * records only (`complete` is false): the field screen needs the figures, the pace and "undo last", not the
- * whole log. Its figures are the core's restored running assessment — exactly those of a rebuild.
+ * whole log. Its figures are the core's restored running assessment — exactly those of a rebuild. It can be
+ * opened before the core has loaded (`fromSnapshot` without it only checks what the first frame draws);
+ * `verify()`, once the core is there, runs the core's own check of the snapshot, and a snapshot that fails
+ * it is rebuilt from the log (web/state/use-study.ts) before any figure is recomputed or saved over it.
  */
 import type {
   Assessment,
@@ -19,7 +22,7 @@ import type {
   RunningSnapshot,
   SeriesPoint,
 } from '../core.ts';
-import { loadedCore } from '../core-loader.ts';
+import { coreIfLoaded, loadedCore } from '../core-loader.ts';
 import type { StoredStudy } from '../storage/schema.ts';
 import { SESSION_SNAPSHOT_VERSION, type StoredSnapshot } from '../storage/snapshots.ts';
 import { Pace } from './pace.ts';
@@ -97,11 +100,28 @@ export class StudySession {
   /** False when opened from a snapshot: `records` then holds the last records of the log only. */
   readonly complete: boolean = true;
 
-  /** A session from a stored snapshot already checked against the log; null when it cannot be restored. */
+  /**
+   * A session from a stored snapshot already matched against the log (count and last id); null when it
+   * cannot be restored. With the core loaded the snapshot is checked in full (`verify`); before, only what
+   * the first frame reads is, and `verify()` must pass once the core is there.
+   */
   static fromSnapshot(study: StoredStudy, snap: StoredSnapshot): StudySession | null {
     const pace = Pace.restore(snap.pace);
-    if (!loadedCore().snapshotFits(study.setup, snap.running) || pace === null) return null;
-    return new StudySession(study, snap.tail, { running: snap.running, pace, count: snap.count });
+    if (pace === null || !drawable(study.setup, snap.running)) return null;
+    const s = new StudySession(study, snap.tail, { running: snap.running, pace, count: snap.count });
+    return coreIfLoaded() === null || s.verify() ? s : null;
+  }
+
+  /**
+   * The core's check of a snapshot session (the core must be loaded): true when its figures are sound —
+   * restored now, off the tap path — or it was not opened from a snapshot; false when it must be rebuilt
+   * from the log.
+   */
+  verify(): boolean {
+    if (this.restored !== null) return true;
+    if (!loadedCore().snapshotFits(this.study.setup, this.stored)) return false;
+    this.settle();
+    return true;
   }
 
   /** The snapshot of this session, for web/storage/snapshots.ts. */
@@ -148,6 +168,12 @@ export class StudySession {
 
   /** The counted results so far (non-detects left out), in entry order — the whole study, in either mode. */
   countedValues(): number[] {
+    const st = this.stored;
+    if (st !== null) {
+      // a snapshot not restored yet (the core may still be loading): its values, less the non-detects
+      const censored = new Set(st.marks.filter((m) => m[1]).map((m) => m[0]));
+      return st.values.filter((_, i) => !censored.has(i));
+    }
     const out: number[] = [];
     for (const p of this.running.points()) if (p.censored !== true) out.push(p.value);
     return out;
@@ -219,6 +245,31 @@ export class StudySession {
     }
     return before;
   }
+}
+
+/**
+ * What the field screen's first frame reads from a snapshot's running figures, before the core can check
+ * them (the core's snapshotFits, run by `verify`, checks everything): the setup they were computed for,
+ * the entries' values and marks, the current assessment's count and kind, the chart's points.
+ */
+function drawable(setup: StoredStudy['setup'], r: unknown): r is RunningSnapshot {
+  if (typeof r !== 'object' || r === null) return false;
+  const s = r as Partial<RunningSnapshot>;
+  const cur = s.current as Partial<Assessment> | null | undefined;
+  return (
+    s.setup === JSON.stringify(setup) &&
+    Array.isArray(s.values) &&
+    Array.isArray(s.marks) &&
+    s.marks.every((m) => Array.isArray(m)) &&
+    Array.isArray(s.sampled) &&
+    (s.latest === null || typeof s.latest === 'object') &&
+    (cur === null ||
+      (typeof cur === 'object' &&
+        cur !== undefined &&
+        cur.n === s.values.length &&
+        cur.kind === setup.kind &&
+        typeof cur.verdict === 'object'))
+  );
 }
 
 function insertSorted(a: number[], x: number): void {

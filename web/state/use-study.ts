@@ -3,10 +3,13 @@
  * racing the first load would be overwritten by it). Every write resolves only after the transaction
  * committed; the session is updated only then.
  *
- * Start: the storage reads and the statistics core's fetch run in parallel. The field screen opens from the
- * study's running snapshot when it matches the log (same record count, same last record: one count and a
- * one-step cursor, not the log) and rebuilds from the log otherwise; the other screens read the whole log.
- * Nothing is written at start.
+ * Start: the field screen opens from the study's running snapshot when it matches the log (same record
+ * count, same last record: one count and a one-step cursor, not the log) and rebuilds from the log
+ * otherwise; the other screens read the whole log, with the statistics core loaded in parallel. From a
+ * snapshot the screen draws and enables Save before the core has loaded: the core follows the first frame,
+ * checks the snapshot in full (`StudySession.verify`) and, if it fails, the study is rebuilt from the log —
+ * before any figure is recomputed (a save made meanwhile is in the log, so the rebuild has it). Nothing is
+ * written at start.
  *
  * Tap path (`add`): one `add()` with the seq the session knows; it resolves once committed ("Saved #k"),
  * and the statistics follow after the next frame (`applied`), so the crew sees the save acknowledged
@@ -62,12 +65,10 @@ type Opened = { missing: true } | { missing: false; session: StudySession };
 
 /** Reads a study into a session: from its snapshot when asked and sound, else from the whole log. */
 export async function openSession(id: string, from: OpenFrom): Promise<Opened> {
-  const core = loadCore();
   // the strata panel reads every counted entry from the records: a stratified study opens from its log
   if (from === 'snapshot') {
     const start = await readStart(id);
     if (!start.study) return { missing: true };
-    await core;
     if (
       !start.study.setup.strata?.length &&
       start.snapshot &&
@@ -77,10 +78,13 @@ export async function openSession(id: string, from: OpenFrom): Promise<Opened> {
       if (s) return { missing: false, session: s };
     }
   }
-  const [study, records] = await Promise.all([getStudy(id), listObservations(id), core]);
+  const [study, records] = await Promise.all([getStudy(id), listObservations(id), loadCore()]);
   if (!study) return { missing: true };
   return { missing: false, session: new StudySession(study, records) };
 }
+
+/** The core's check of each session opened (one per session, shared by whoever waits for it). */
+const checks = new WeakMap<StudySession, Promise<StudySession>>();
 
 /** One pending snapshot write per study (switching studies must not cancel the other's). */
 const snapshotTimers = new Map<string, ReturnType<typeof setTimeout>>();
@@ -149,11 +153,13 @@ export function useStudy(id: string, from: OpenFrom = 'log'): StudyView {
         setSession(opened.session);
         setExported(upTo);
         setLoaded(true);
-        // after the first frame, off the tap path: restore a snapshot's running assessment, and sort the
-        // results once for the pad's outlier question
+        // after the first frame, off the tap path: load the core, check and restore a snapshot's running
+        // assessment (rebuilt from the log if unsound), and sort the results once for the outlier question
         afterFrame(() => {
-          opened.session.settle();
-          opened.session.sortedValues();
+          void sound(opened.session).then(
+            (s) => s.sortedValues(),
+            () => undefined,
+          );
         });
       } catch (err) {
         if (live)
@@ -175,11 +181,36 @@ export function useStudy(id: string, from: OpenFrom = 'log'): StudyView {
     return opened.session;
   }, [id]);
 
+  /**
+   * The session, once the core has loaded and checked it: a snapshot session whose figures fail the core's
+   * check is replaced by one read from the whole log (one check per session; later calls return at once).
+   */
+  const sound = useCallback(
+    (s: StudySession): Promise<StudySession> => {
+      let p = checks.get(s);
+      if (p === undefined) {
+        p = loadCore().then(async () => {
+          if (s.verify() || ref.current !== s) return ref.current ?? s;
+          const rebuilt = await reload();
+          setVersion((v) => v + 1);
+          return rebuilt;
+        });
+        checks.set(s, p);
+      }
+      return p;
+    },
+    [reload],
+  );
+
   const apply = useCallback(
     async (records: ObservationRecord[]) => {
       let s = ref.current as StudySession;
       let before = s.assessment;
-      if ((records[0]?.seq ?? 0) !== s.lastSeq + 1) {
+      const checked = await sound(s);
+      if (checked !== s) {
+        // rebuilt from the log, which already holds these records
+        s = checked;
+      } else if ((records[0]?.seq ?? 0) !== s.lastSeq + 1) {
         // Another tab of the app wrote to this study meanwhile (a gap in seq): read the log again so that
         // n, the verdict and "undo last" cover every entry on the phone, not only this tab's. Rare; O(n).
         s = await reload();
@@ -194,7 +225,7 @@ export function useStudy(id: string, from: OpenFrom = 'log'): StudyView {
       scheduleSnapshot(s);
       return { record: records.at(-1) as ObservationRecord, before };
     },
-    [reload],
+    [reload, sound],
   );
 
   const need = () => {

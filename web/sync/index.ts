@@ -3,7 +3,8 @@
  * network, the core — is in engine.ts, loaded on first use, so the shell stays small and nothing of it
  * runs on the tap path.
  *
- * A linked study syncs when its field screen opens and every minute while it is open (`watchStudy`),
+ * A linked study syncs when its field screen opens (once the phone is idle) and every minute while it is
+ * open (`watchStudy`),
  * SAVE_DEBOUNCE_MS after the last save (the storage's log-write signal, web/storage/log-events.ts),
  * and for every linked study when the phone comes back online and once at start (`startSync`).
  */
@@ -63,7 +64,16 @@ export function startSync(): () => void {
 
 /** While a study's field screen is open: sync now and every minute; returns the stop. */
 export function watchStudy(studyId: string): () => void {
-  void syncSoon(studyId, 'open');
+  // the open's sync waits until the phone is idle: the field screen's start comes first
+  let live = true;
+  const idle = (globalThis as { requestIdleCallback?: (fn: () => void, o?: { timeout: number }) => void })
+    .requestIdleCallback;
+  const first = () => live && void syncSoon(studyId, 'open');
+  if (idle) idle(first, { timeout: 2_000 });
+  else setTimeout(first, 200);
   const every = setInterval(() => void syncSoon(studyId, 'tick'), TICK_MS);
-  return () => clearInterval(every);
+  return () => {
+    live = false;
+    clearInterval(every);
+  };
 }

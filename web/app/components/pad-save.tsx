@@ -2,8 +2,13 @@
  * The pads' shared save flow: validate the note, ask "keep it?" when a value looks implausible (never
  * refuse or change it), save, keep everything on a failed write, clear (value and note) on success, and
  * say what was saved — with a warning when the position was coarse.
+ *
+ * The tap path draws as little as it can: "Saving…" is written straight into its own slot (SavingSlot) and
+ * nothing else re-renders before the write, and a second tap while a save is in flight is refused in the
+ * handler (no re-render of the whole pad disabled). "Saved #k" is the pad's one re-render, after the commit.
  */
-import { useEffect, useState } from 'preact/hooks';
+import type { ComponentChildren, RefObject } from 'preact';
+import { useEffect, useRef, useState } from 'preact/hooks';
 import { checkNote } from '../../input/parse.ts';
 import { setHalfTyped } from '../../state/app-state.ts';
 import type { NewEntry } from '../../storage/observations.ts';
@@ -43,6 +48,26 @@ export function PadMessage({ msg }: { msg: Msg }) {
   );
 }
 
+/**
+ * A label with a slot for "Saving…": the slot is written directly while a save is in flight (no render),
+ * and its parent then carries `data-saving`, which hides the label (web/styles/field.css). Preact never
+ * renders into the slot nor that attribute, so the two never fight.
+ */
+export function SavingSlot(props: { slot: RefObject<HTMLSpanElement | null>; children: ComponentChildren }) {
+  return (
+    <>
+      <span class="save-label">{props.children}</span>
+      <span class="save-busy" ref={props.slot} />
+    </>
+  );
+}
+
+function showSaving(slot: HTMLSpanElement | null, on: boolean): void {
+  if (!slot) return;
+  slot.textContent = on ? 'Saving…' : '';
+  slot.parentElement?.toggleAttribute('data-saving', on);
+}
+
 /** The "keep it?" question: Keep saves the value as typed; Change goes back to the pad with it still there. */
 export function KeepPrompt(props: { pending: Pending | null; keep(): void; change(): void }) {
   const p = props.pending;
@@ -66,20 +91,24 @@ export function KeepPrompt(props: { pending: Pending | null; keep(): void; chang
 
 export function useSaver(props: PadProps, padKey: string, dirty: boolean, note: Note) {
   const [msg, setMsg] = useState<Msg>(null);
-  const [busy, setBusy] = useState(false);
   const [pending, setPending] = useState<Pending | null>(null);
+  /** True while a save is in flight: a second tap then does nothing (one tap, one entry). */
+  const inFlight = useRef(false);
+  /** The "Saving…" slot of the pad's save control (SavingSlot). */
+  const slot = useRef<HTMLSpanElement>(null);
   useEffect(() => {
     setHalfTyped(padKey, dirty);
   }, [padKey, dirty]);
   useEffect(() => () => setHalfTyped(padKey, false), [padKey]);
   async function commit(entry: NewEntry, onDone: () => void, what: string, text: string) {
-    // The write is asked for before "Saving…" is drawn: the storage opens its transaction in the first
-    // microtask, ahead of the re-render that setBusy queues, so the commit runs while the frame is drawn
-    // instead of after it. The word still shows in the frame after the tap.
+    if (inFlight.current) return;
+    inFlight.current = true;
+    // the write is asked for first; "Saving…" is one text written into its slot, shown in the next frame
     const saving = props.onSave(text ? { ...entry, note: text } : entry);
-    setBusy(true);
+    showSaving(slot.current, true);
     try {
       const saved = await saving;
+      showSaving(slot.current, false);
       onDone();
       note.clear();
       setMsg({
@@ -88,13 +117,15 @@ export function useSaver(props: PadProps, padKey: string, dirty: boolean, note: 
         ...(saved.warning ? { warning: saved.warning } : {}),
       });
     } catch (err) {
+      showSaving(slot.current, false);
       setMsg({ kind: 'error', text: (err as Error).message });
     } finally {
-      setBusy(false);
+      inFlight.current = false;
     }
   }
   async function save(entry: NewEntry | { error: string }, onDone: () => void, what: string) {
-    setPending(null);
+    if (inFlight.current) return;
+    if (pending !== null) setPending(null);
     if ('error' in entry) {
       setMsg({ kind: 'error', text: `${entry.error} Nothing was saved.` });
       return;
@@ -118,5 +149,5 @@ export function useSaver(props: PadProps, padKey: string, dirty: boolean, note: 
     const n = checkNote(note.note);
     if (p && n.ok) void commit(p.entry, p.onDone, p.what, n.text);
   };
-  return { msg, setMsg, busy, save, pending, keep, change: () => setPending(null) };
+  return { msg, setMsg, slot, save, pending, keep, change: () => setPending(null) };
 }

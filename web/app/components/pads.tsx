@@ -4,11 +4,11 @@
  * On a failed write the typed value stays in the pad; "Saved" appears only after the commit.
  */
 import type { ComponentChildren } from 'preact';
-import { useState } from 'preact/hooks';
+import { useRef, useState } from 'preact/hooks';
 import { NOTE_MAX, parseCount, parseMeasurement } from '../../input/parse.ts';
 import type { NewEntry } from '../../storage/observations.ts';
 import { type Sep, sepName } from '../number-style.ts';
-import { KeepPrompt, PadMessage, useSaver } from './pad-save.tsx';
+import { KeepPrompt, PadMessage, SavingSlot, useSaver } from './pad-save.tsx';
 
 export interface PadProps {
   disabled: boolean;
@@ -52,9 +52,9 @@ function NoteBox(props: { note: string; setNote(v: string): void; id: string }) 
   );
 }
 
-/** The label of a pad's Save button while loading, saving, or ready. */
-function saveLabel(disabled: boolean, busy: boolean, ready: string): string {
-  return disabled ? 'Loading…' : busy ? 'Saving…' : ready;
+/** The label of a pad's Save button while loading, or ready ("Saving…" is written into its slot). */
+function saveLabel(disabled: boolean, ready: string): string {
+  return disabled ? 'Loading…' : ready;
 }
 
 /** The pad as a form: Enter or the Save button submits, and the page never reloads. */
@@ -145,11 +145,15 @@ function NoteToggle(props: { note: Note; disabled: boolean; cls?: string }) {
 export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?: number | undefined }) {
   const [text, setText] = useState('');
   const [censored, setCensored] = useState(false);
+  /** The text as last rendered, for the save's clean-up (keys stay live while a save is in flight). */
+  const typed = useRef(text);
+  typed.current = text;
   const n = useNote();
   const dirty = text !== '' || n.note.trim() !== '';
   const saver = useSaver(props, 'measurement', dirty, n);
-  const { msg, setMsg, busy, save } = saver;
-  const off = props.disabled || busy;
+  const { msg, setMsg, save } = saver;
+  // keys stay live while a save is in flight (the saver refuses a second save): nothing re-renders on a tap
+  const off = props.disabled;
   const sep = props.sep ?? '.';
   const type = (s: string) => {
     setMsg(null);
@@ -171,6 +175,8 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
     void save(
       p.ok ? { value: p.value, ...(censored ? { censored: true } : {}) } : { error: p.message },
       () => {
+        // clears what was saved; a value keyed in meanwhile is the next entry's and stays
+        if (typed.current !== text) return;
         setText('');
         setCensored(false);
       },
@@ -230,7 +236,7 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
       <div class="save-row" hidden={!!saver.pending}>
         {props.undo}
         <button type="submit" class="save" disabled={off}>
-          {saveLabel(props.disabled, busy, 'Save')}
+          <SavingSlot slot={saver.slot}>{saveLabel(props.disabled, 'Save')}</SavingSlot>
         </button>
       </div>
     </PadForm>
@@ -242,8 +248,8 @@ export function CountPad(props: PadProps) {
   const n = useNote();
   const dirty = (text !== '0' && text !== '') || n.note.trim() !== '';
   const saver = useSaver(props, 'count', dirty, n);
-  const { msg, setMsg, busy, save } = saver;
-  const off = props.disabled || busy;
+  const { msg, setMsg, save } = saver;
+  const off = props.disabled;
   const parsed = parseCount(text);
   const step = (d: number) => {
     setMsg(null);
@@ -254,7 +260,7 @@ export function CountPad(props: PadProps) {
     const p = parseCount(text, 'Count');
     void save(
       p.ok ? { value: p.value } : { error: p.message },
-      () => setText('0'),
+      () => setText((t) => (t === text ? '0' : t)),
       `${text.trim()} in the plot`,
     );
   };
@@ -296,7 +302,9 @@ export function CountPad(props: PadProps) {
         {props.undo}
       </div>
       <button type="submit" class="save" disabled={off}>
-        {saveLabel(props.disabled, busy, `Save plot: ${parsed.ok ? parsed.value : text}`)}
+        <SavingSlot slot={saver.slot}>
+          {saveLabel(props.disabled, `Save plot: ${parsed.ok ? parsed.value : text}`)}
+        </SavingSlot>
       </button>
     </PadForm>
   );
@@ -304,15 +312,17 @@ export function CountPad(props: PadProps) {
 
 export function PassFailPad(props: PadProps & { outcome: string; other: string }) {
   const n = useNote();
-  const { msg, busy, save } = useSaver(props, 'pass-fail', n.note.trim() !== '', n);
-  const off = props.disabled || busy;
+  const { msg, slot, save } = useSaver(props, 'pass-fail', n.note.trim() !== '', n);
+  const off = props.disabled;
   const press = (value: 0 | 1) => save({ value }, () => undefined, value ? props.outcome : props.other);
   return (
     <fieldset class="pad">
       <legend class="sr-only">Entry pad</legend>
       {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-pf" />}
       <PadMessage msg={msg} />
-      <p class="pad-hint">Each tap saves one item.</p>
+      <p class="pad-hint">
+        <SavingSlot slot={slot}>Each tap saves one item.</SavingSlot>
+      </p>
       <div class="pf">
         <PfButton cls="yes" onPress={() => press(1)} disabled={off} mark="✕">
           {props.outcome}

@@ -5,7 +5,7 @@
  * (inline where there is room, a panel opened with one tap where there is not), the rule's known limits
  * and the design bar.
  */
-import { useEffect, useMemo, useState } from 'preact/hooks';
+import { useEffect, useState } from 'preact/hooks';
 import type { Assessment, ObservationRecord, StudySetup } from '../../core.ts';
 import {
   entryWords,
@@ -15,7 +15,7 @@ import {
   outcomeWords,
   valueUnit,
 } from '../../core-light.ts';
-import { loadedCore } from '../../core-loader.ts';
+import { coreIfLoaded, loadCore } from '../../core-loader.ts';
 import { DesignBar, useDesignEntry } from '../../design/field-design.tsx';
 import { settings, updateSettings } from '../../state/app-state.ts';
 import { signalVerdictChange } from '../../state/feedback.ts';
@@ -69,8 +69,20 @@ function Field({ view }: { view: StudyView }) {
   const [undo, setUndo] = useState<ObservationRecord | null>(null);
   const [chartOpen, setChartOpen] = useState(false);
   const design = useDesignEntry(study, a);
-  // the benchmark's known shortfalls for this setup (ruleWarnings); the core is loaded before this screen
-  const ruleCautions = useMemo(() => loadedCore().ruleWarnings(setup), [setup]);
+  // the benchmark's known shortfalls for this setup (ruleWarnings): from the core, which may still be
+  // loading when the screen first draws from the study's snapshot (they follow within the next frames)
+  const [ruleCautions, setRuleCautions] = useState<string[]>(() => coreIfLoaded()?.ruleWarnings(setup) ?? []);
+  useEffect(() => {
+    let live = true;
+    void loadCore().then((c) => {
+      const next = c.ruleWarnings(setup);
+      // unchanged (the core was loaded already): no second render of the screen
+      if (live) setRuleCautions((prev) => (prev.join('\n') === next.join('\n') ? prev : next));
+    });
+    return () => {
+      live = false;
+    };
+  }, [setup]);
   useEffect(() => {
     if (s.position) startPosition();
     return () => stopPosition();
