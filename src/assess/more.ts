@@ -49,9 +49,15 @@ export function projectMore(
     // "about 70 more", not "at least 19 more", when the spread so far asks for a hundred)
     const m = min - n;
     const early = n >= 2 ? estimator.project(target, level, sided) : null;
-    if (early === null || !Number.isFinite(early.likely) || Math.ceil(early.likely - 1e-9) <= min)
-      return { more: { likely: m, low: m, high: m, atLeast: true }, memory: null };
     const total = (x: number) => Math.max(min, clampTotal(Math.ceil(x - 1e-9)));
+    if (early === null || !Number.isFinite(early.likely) || Math.ceil(early.likely - 1e-9) <= min) {
+      // "at least M more", with the projection's upper end beside it when that reaches past the minimum:
+      // a degenerate range M–M held the entries actually needed only when the rule stopped right at the
+      // minimum (test/bench/calibration.md)
+      const high = early === null ? m : Number.isFinite(early.high) ? total(early.high) - n : m;
+      if (early !== null && high > m) details.moreBasis = early.basis;
+      return { more: { likely: m, low: m, high: Math.max(m, high), atLeast: true }, memory: null };
+    }
     details.moreBasis = early.basis;
     const more: More = {
       likely: total(early.likely) - n,

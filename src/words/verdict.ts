@@ -11,7 +11,8 @@ import { outcomeWords, valueUnit, withUnit } from './study.ts';
 export function moreWords(a: Assessment, atPace?: (entries: number) => string): string | null {
   const m = a.more;
   if (a.verdict.status !== 'keep going' || !m) return null;
-  if (m.atLeast) return `at least ${m.likely} more before a verdict`;
+  if (m.atLeast)
+    return `at least ${m.likely} more before a verdict${m.high > m.likely ? ` (likely ${m.low}–${m.high})` : ''}`;
   const range = m.low === m.high ? '' : ` (likely ${m.low}–${m.high})`;
   if (m.likely === 0)
     return `the next entries may settle it${range ? ` (likely ${m.low}–${m.high} more)` : ''}`;

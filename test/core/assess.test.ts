@@ -276,6 +276,16 @@ describe('how many more for a pass/fail limit decision', () => {
     expect(b.more!.likely).toBeGreaterThan(20);
     expect(b.more!.likely).toBeLessThan(43);
   });
+  // A margin on a rare outcome projects from the median of the Jeffreys posterior Beta(x + ½, n − x + ½):
+  // 1 in 40 → p̃ = 0.029324 [scipy: beta.ppf(0.5, 1.5, 39.5)], n = z²·p̃(1 − p̃)/d² = 121.49 for ±3 points at 95 %
+  // [scipy: norm.ppf(0.975)**2 * p*(1-p) / 0.03**2], so 82 more (the Agresti–Coull centre (x + z²/2)/(n + z²) = 0.0666 said 226 more)
+  it('one counted item in 40, margin ±3 points: about 82 more, from the Jeffreys median', () => {
+    const items = Array.from({ length: 40 }, (_, i) => ({ value: i === 12 ? 1 : 0 }));
+    const a = assess(items, { ...base, kind: 'pass-fail', target: { kind: 'margin', value: 0.03 } });
+    expect(a.verdict.status).toBe('keep going');
+    expect(a.more?.likely).toBe(82);
+    expect(a.details.moreBasis).toMatch(/Jeffreys/);
+  });
   it('never keep going with 0 more: 60 items, none counted, margin ±10 points', () => {
     // the margin is met on paper (Wilson's half-width at 0/60 is under 0.1), but one outcome only is never
     // `enough` for a margin target: the line said "keep going" and "0 more"
