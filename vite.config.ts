@@ -1,10 +1,35 @@
 /// <reference types="vitest/config" />
 import { resolve } from 'node:path';
 import preact from '@preact/preset-vite';
-import { defineConfig, type UserConfig } from 'vite';
+import { defineConfig, type Plugin, type UserConfig } from 'vite';
 import { VitePWA } from 'vite-plugin-pwa';
 
 const projectRoot = import.meta.dirname;
+
+/**
+ * The app shell as one chunk: every module that web/main.tsx imports statically (the studies list, the
+ * field screen, storage). Left to itself the bundler cuts the modules that the lazily loaded screens share
+ * with the shell into many small chunks, each one more request and module to fetch, compile and link
+ * before the first frame. The set is walked from the entry's static imports once the graph is built.
+ */
+function shellChunk(): Plugin & { shell: Set<string> } {
+  const shell = new Set<string>();
+  return {
+    name: 'sure-enough-shell-chunk',
+    shell,
+    buildEnd() {
+      shell.clear();
+      const entry = resolve(projectRoot, 'web/main.tsx');
+      const queue = [entry];
+      while (queue.length > 0) {
+        const id = queue.pop() as string;
+        if (shell.has(id)) continue;
+        shell.add(id);
+        for (const dep of this.getModuleInfo(id)?.importedIds ?? []) queue.push(dep);
+      }
+    },
+  };
+}
 
 // `vite build --mode cli` bundles the Node command line (and the coverage benchmark) from the pure core.
 // `vite build --mode server` bundles the crew server (dist-server/).
@@ -57,13 +82,22 @@ export default defineConfig(({ mode }): UserConfig => {
     };
   }
   const testing = process.env.VITEST !== undefined;
+  const shell = shellChunk();
   return {
     root: resolve(projectRoot, 'web'),
     publicDir: resolve(projectRoot, 'public'),
     define: { __APP_VERSION__: JSON.stringify(process.env.APP_VERSION ?? '0.1.0') },
-    build: { outDir: resolve(projectRoot, 'dist'), emptyOutDir: true, target: 'es2022' },
+    build: {
+      outDir: resolve(projectRoot, 'dist'),
+      emptyOutDir: true,
+      target: 'es2022',
+      rolldownOptions: {
+        output: { codeSplitting: { groups: [{ name: 'shell', test: (id: string) => shell.shell.has(id) }] } },
+      },
+    },
     preview: { port: 4173, strictPort: true },
     plugins: [
+      shell,
       preact(),
       ...(testing
         ? []

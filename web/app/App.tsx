@@ -1,15 +1,57 @@
-/** The app shell: banners that concern every screen, and the router. */
-import type { VNode } from 'preact';
-import { useEffect } from 'preact/hooks';
+/**
+ * The app shell: banners that concern every screen, and the router. The studies list and the field screen
+ * are in the shell; the other screens are chunks of their own, loaded when first opened, so that a cold
+ * start compiles and runs only what its first screen draws.
+ */
+import type { ComponentType, VNode } from 'preact';
+import { useEffect, useState } from 'preact/hooks';
 import { dbBlocked, halfTyped, offlineReady, updateWaiting } from '../state/app-state.ts';
 import { useStore } from '../state/store.ts';
 import { useRoute } from './router.ts';
 import { FieldScreen } from './screens/field.tsx';
-import { LogScreen } from './screens/log.tsx';
-import { NewStudyScreen } from './screens/new-study.tsx';
-import { ReportScreen } from './screens/report.tsx';
 import { StudiesScreen } from './screens/studies.tsx';
-import { DemoScreen } from './screens/studies-demo.tsx';
+
+/** A screen loaded on first use; an empty screen is drawn meanwhile (a moment, from the phone's cache). */
+function lazyScreen<P extends object>(load: () => Promise<ComponentType<P>>): ComponentType<P> {
+  let Loaded: ComponentType<P> | null = null;
+  let loading: Promise<unknown> | null = null;
+  return function LazyScreen(props: P) {
+    const [failed, setFailed] = useState<string | null>(null);
+    const [, loadedNow] = useState(0);
+    useEffect(() => {
+      if (Loaded) return;
+      let live = true;
+      loading ??= load().then((c) => {
+        Loaded = c;
+      });
+      loading.then(
+        () => live && loadedNow((x) => x + 1),
+        (err: Error) => {
+          loading = null;
+          if (live) setFailed(err.message);
+        },
+      );
+      return () => {
+        live = false;
+      };
+    }, []);
+    if (Loaded) return <Loaded {...props} />;
+    return (
+      <div class="screen" aria-busy={failed === null}>
+        {failed !== null && (
+          <p class="warn" role="alert">
+            This screen could not be loaded ({failed}). Reload the app.
+          </p>
+        )}
+      </div>
+    );
+  };
+}
+
+const NewStudyScreen = lazyScreen(() => import('./screens/new-study.tsx').then((m) => m.NewStudyScreen));
+const DemoScreen = lazyScreen(() => import('./screens/studies-demo.tsx').then((m) => m.DemoScreen));
+const LogScreen = lazyScreen(() => import('./screens/log.tsx').then((m) => m.LogScreen));
+const ReportScreen = lazyScreen(() => import('./screens/report.tsx').then((m) => m.ReportScreen));
 
 export function Banners() {
   const blocked = useStore(dbBlocked);

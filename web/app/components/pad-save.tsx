@@ -28,10 +28,12 @@ interface Pending {
   question: string;
 }
 
-export function PadMessage({ msg }: { msg: Msg }) {
+/** The pad's message line; `at` lets the save flow write "Saved #k" into it directly (see `showSaved`). */
+export function PadMessage({ msg, at }: { msg: Msg; at?: RefObject<HTMLParagraphElement | null> }) {
   return (
     <>
       <p
+        ref={at}
         class={`pad-msg ${msg?.kind ?? ''}`}
         role={msg?.kind === 'error' ? 'alert' : 'status'}
         data-testid="pad-msg"
@@ -68,6 +70,27 @@ function showSaving(slot: HTMLSpanElement | null, on: boolean): void {
   slot.parentElement?.toggleAttribute('data-saving', on);
 }
 
+/**
+ * Writes "Saved #k" into the message line at once, as the pad's next render will (same text, class and
+ * attribute), so that the frame after the commit shows it without waiting for that render. The text goes
+ * into the line's own text node, which the render then sets to the same words. False when the line is not
+ * there as rendered (the render then says it).
+ */
+function showSaved(line: HTMLParagraphElement | null, text: string): boolean {
+  const node = line?.firstChild;
+  if (!line || !(node instanceof Text) || node.nextSibling !== null) return false;
+  node.data = text;
+  line.className = 'pad-msg saved';
+  line.setAttribute('data-committed', '1');
+  return true;
+}
+
+/** Runs `fn` after the next frame has been painted (or soon, where there are no frames). */
+function afterFrame(fn: () => void): void {
+  if (typeof requestAnimationFrame === 'function') requestAnimationFrame(() => setTimeout(fn, 0));
+  else setTimeout(fn, 0);
+}
+
 /** The "keep it?" question: Keep saves the value as typed; Change goes back to the pad with it still there. */
 export function KeepPrompt(props: { pending: Pending | null; keep(): void; change(): void }) {
   const p = props.pending;
@@ -89,13 +112,15 @@ export function KeepPrompt(props: { pending: Pending | null; keep(): void; chang
   );
 }
 
-export function useSaver(props: PadProps, padKey: string, dirty: boolean, note: Note) {
+/** `holdsValue`: the pad keeps a typed value until it is saved (measurement, count), unlike pass/fail. */
+export function useSaver(props: PadProps, padKey: string, dirty: boolean, note: Note, holdsValue = true) {
   const [msg, setMsg] = useState<Msg>(null);
   const [pending, setPending] = useState<Pending | null>(null);
   /** True while a save is in flight: a second tap then does nothing (one tap, one entry). */
   const inFlight = useRef(false);
-  /** The "Saving…" slot of the pad's save control (SavingSlot). */
+  /** The "Saving…" slot of the pad's save control (SavingSlot), and the message line (PadMessage). */
   const slot = useRef<HTMLSpanElement>(null);
+  const line = useRef<HTMLParagraphElement>(null);
   useEffect(() => {
     setHalfTyped(padKey, dirty);
   }, [padKey, dirty]);
@@ -106,22 +131,29 @@ export function useSaver(props: PadProps, padKey: string, dirty: boolean, note: 
     // the write is asked for first; "Saving…" is one text written into its slot, shown in the next frame
     const saving = props.onSave(text ? { ...entry, note: text } : entry);
     showSaving(slot.current, true);
+    let saved: Awaited<typeof saving>;
     try {
-      const saved = await saving;
-      showSaving(slot.current, false);
-      onDone();
-      note.clear();
-      setMsg({
-        kind: 'saved',
-        text: `Saved #${saved.seq}: ${what}`,
-        ...(saved.warning ? { warning: saved.warning } : {}),
-      });
+      saved = await saving;
     } catch (err) {
       showSaving(slot.current, false);
       setMsg({ kind: 'error', text: (err as Error).message });
-    } finally {
       inFlight.current = false;
+      return;
     }
+    // committed: "Saved #k" now, written into its line; the pad's render (clearing the value and the note)
+    // follows that frame. Until then a second tap is refused when it would save the same value or note
+    // again; the pass/fail pad holds neither, and each of its taps is a new item.
+    const words = `Saved #${saved.seq}: ${what}`;
+    showSaving(slot.current, false);
+    if (!holdsValue && !text) inFlight.current = false;
+    const done = () => {
+      onDone();
+      note.clear();
+      setMsg({ kind: 'saved', text: words, ...(saved.warning ? { warning: saved.warning } : {}) });
+      inFlight.current = false;
+    };
+    if (showSaved(line.current, words)) afterFrame(done);
+    else done();
   }
   async function save(entry: NewEntry | { error: string }, onDone: () => void, what: string) {
     if (inFlight.current) return;
@@ -149,5 +181,5 @@ export function useSaver(props: PadProps, padKey: string, dirty: boolean, note: 
     const n = checkNote(note.note);
     if (p && n.ok) void commit(p.entry, p.onDone, p.what, n.text);
   };
-  return { msg, setMsg, slot, save, pending, keep, change: () => setPending(null) };
+  return { msg, setMsg, slot, line, save, pending, keep, change: () => setPending(null) };
 }

@@ -201,7 +201,7 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
         mark={censored && <span class="rl-mark">&lt;</span>}
       />
       {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-measurement" />}
-      <PadMessage msg={msg} />
+      <PadMessage msg={msg} at={saver.line} />
       <KeepPrompt pending={saver.pending} keep={saver.keep} change={saver.change} />
       <div class="keys" hidden={!!saver.pending}>
         {['7', '8', '9'].map((k) => (
@@ -278,7 +278,7 @@ export function CountPad(props: PadProps) {
         selectOnFocus
       />
       {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-count" />}
-      <PadMessage msg={msg} />
+      <PadMessage msg={msg} at={saver.line} />
       <KeepPrompt pending={saver.pending} keep={saver.keep} change={saver.change} />
       <div class="counter" hidden={!!saver.pending}>
         <button
@@ -312,14 +312,14 @@ export function CountPad(props: PadProps) {
 
 export function PassFailPad(props: PadProps & { outcome: string; other: string }) {
   const n = useNote();
-  const { msg, slot, save } = useSaver(props, 'pass-fail', n.note.trim() !== '', n);
+  const { msg, slot, line, save } = useSaver(props, 'pass-fail', n.note.trim() !== '', n, false);
   const off = props.disabled;
   const press = (value: 0 | 1) => save({ value }, () => undefined, value ? props.outcome : props.other);
   return (
     <fieldset class="pad">
       <legend class="sr-only">Entry pad</legend>
       {n.open && <NoteBox note={n.note} setNote={n.setNote} id="note-pf" />}
-      <PadMessage msg={msg} />
+      <PadMessage msg={msg} at={line} />
       <p class="pad-hint">
         <SavingSlot slot={slot}>Each tap saves one item.</SavingSlot>
       </p>

@@ -5,6 +5,7 @@
  * (inline where there is room, a panel opened with one tap where there is not), the rule's known limits
  * and the design bar.
  */
+import type { VNode } from 'preact';
 import { useEffect, useState } from 'preact/hooks';
 import type { Assessment, ObservationRecord, StudySetup } from '../../core.ts';
 import {
@@ -46,6 +47,20 @@ export function positionWarning(accuracyM: number | undefined, setup: StudySetup
   const limit = setup.positionWarnM ?? POSITION_WARN_M;
   if (accuracyM === undefined || !(accuracyM > limit)) return undefined;
   return `Position saved, but coarse: ± ${Math.round(accuracyM)} m is worse than ${limit} m. Wait for a better fix or note the place.`;
+}
+
+/**
+ * Draws its content from the frame after its first: the chart is the largest drawing of the field screen
+ * and the least needed at the moment it opens, so the verdict and the pad come first. Only this component
+ * renders again then, not the screen.
+ */
+function AfterFirstFrame({ children }: { children: () => VNode }) {
+  const [shown, setShown] = useState(false);
+  useEffect(() => {
+    const frame = requestAnimationFrame(() => setShown(true));
+    return () => cancelAnimationFrame(frame);
+  }, []);
+  return shown ? children() : null;
 }
 
 export function FieldScreen({ id }: { id: string }) {
@@ -156,15 +171,19 @@ function Field({ view }: { view: StudyView }) {
               Close chart
             </button>
           </div>
-          <Chart
-            series={session.series}
-            current={a}
-            target={setup.target}
-            scale={figureScale(setup)}
-            label={`Chart of ${study.name}`}
-            unit={figureUnit(setup)}
-            sep={sep}
-          />
+          <AfterFirstFrame>
+            {() => (
+              <Chart
+                series={session.series}
+                current={a}
+                target={setup.target}
+                scale={figureScale(setup)}
+                label={`Chart of ${study.name}`}
+                unit={figureUnit(setup)}
+                sep={sep}
+              />
+            )}
+          </AfterFirstFrame>
         </div>
         {ruleCautions.length > 0 && (
           <details class="rule-cautions" data-testid="field-rule-warnings">
