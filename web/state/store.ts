@@ -28,7 +28,8 @@ export function store<T>(initial: T): Store<T> {
 export function useStore<T>(s: Store<T>): T {
   const [box, setBox] = useState(() => ({ v: s.get() }));
   useEffect(() => {
-    setBox({ v: s.get() });
+    // a value set between the render and this effect; the same value renders nothing again
+    setBox((b) => (Object.is(b.v, s.get()) ? b : { v: s.get() }));
     return s.subscribe((v) => setBox({ v }));
   }, [s]);
   return box.v;

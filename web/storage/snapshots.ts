@@ -52,9 +52,10 @@ export async function readStart(studyId: string): Promise<StartRead> {
     idx.count(studyRange(studyId)),
     idx.openCursor(studyRange(studyId), 'prev'),
   ]);
-  const last = cursor?.value;
-  await tx.done;
-  return { study, snapshot, count, last };
+  // read-only: the answers are final once each request has succeeded; waiting for the transaction's
+  // complete event as well would only delay the first frame (a failed request rejects above)
+  tx.done.catch(() => undefined);
+  return { study, snapshot, count, last: cursor?.value };
 }
 
 /** True when the snapshot was taken from the log as it is now (same count, same last record). */
