@@ -4,7 +4,7 @@
  * (those, Land or Chebyshev). Glue over the method files; see each for its source.
  */
 import type { AnalysisSetup, MeasurementMethod, MethodChoice, Sided, Target } from '../../model/types.ts';
-import { boxVarianceDf } from '../../plan/box-variance-df.ts';
+import { adjustedExcessKurtosis, boxVarianceDf } from '../../plan/box-variance-df.ts';
 import { sigmaQuantile as sigmaQ } from '../../plan/chi-square-sigma-limits.ts';
 import { tQuantileAtRealDf } from '../../plan/fixed-point-sample-size.ts';
 import { projectLimitDecision } from '../../plan/limit-decision-projection.ts';
@@ -137,8 +137,10 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
           : Math.sqrt(1 / alpha - 1)
         : undefined;
     // heavy tails widen the σ distribution behind the range (Box 1953, src/plan/box-variance-df.ts)
-    const withPop =
-      population === undefined ? { kurtosis: summary.kurtosis } : { population, kurtosis: summary.kurtosis };
+    // (the bias-corrected G₂, not g₂: a small sample reads heavy tails too light)
+    const g2 = summary.kurtosis;
+    const kurtosis = g2 === null ? null : adjustedExcessKurtosis(n, g2);
+    const withPop = population === undefined ? { kurtosis } : { population, kurtosis };
     const withMult = multiplier === undefined ? {} : { multiplier };
     switch (target.kind) {
       case 'margin': {
@@ -151,8 +153,8 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
           const s = summary.logSd;
           if (!(s > 0)) return null;
           const at = (sy: number) => logScaleRelativeSampleSize(sy, target.value, p);
-          const g2 = summary.logKurtosis;
-          const df = g2 === null ? n - 1 : boxVarianceDf(n, g2);
+          const logG2 = summary.logKurtosis;
+          const df = logG2 === null ? n - 1 : boxVarianceDf(n, adjustedExcessKurtosis(n, logG2));
           return {
             likely: at(sigmaQ(s, n, 0.5, df)),
             low: at(sigmaQ(s, n, 0.1, df)),
@@ -181,7 +183,7 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
           n,
           distance: estimate - target.value,
           // σ's median rather than s, as for the other targets: s under-reads σ more often than not
-          spread: sigmaQ(sd, n, 0.5, summary.kurtosis === null ? n - 1 : boxVarianceDf(n, summary.kurtosis)),
+          spread: sigmaQ(sd, n, 0.5, kurtosis === null ? n - 1 : boxVarianceDf(n, kurtosis)),
           multiplier: c,
           ...(population === undefined ? {} : { population }),
         });

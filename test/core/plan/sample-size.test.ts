@@ -1,7 +1,7 @@
 // Planning formulas against worked figures from the published formulas (source and evidence beside each)
 // and scipy (stats-plan.json, `python3 test/fixtures/stats-fixtures.py`).
 import { describe, expect, it } from 'vitest';
-import { boxVarianceDf } from '../../../src/plan/box-variance-df.ts';
+import { adjustedExcessKurtosis, boxVarianceDf } from '../../../src/plan/box-variance-df.ts';
 import { sigmaQuantile } from '../../../src/plan/chi-square-sigma-limits.ts';
 import { countSampleSize } from '../../../src/plan/count-sample-size.ts';
 import { fixedPointSampleSize } from '../../../src/plan/fixed-point-sample-size.ts';
@@ -136,5 +136,15 @@ describe('Box (1953) degrees of freedom of a variance under non-normality', () =
     expect(boxVarianceDf(30, 6)).toBeCloseTo(7.4359, 4);
     expect(boxVarianceDf(30, 0)).toBe(29);
     expect(boxVarianceDf(30, -1.2)).toBe(29);
+  });
+});
+
+describe('the bias-corrected sample excess kurtosis G₂ (Joanes & Gill 1998)', () => {
+  // ten skewed values: scipy.stats.kurtosis(x, bias=True) = g₂ = 2.026297325791843 and
+  // scipy.stats.kurtosis(x, bias=False) = G₂ = 4.546489915239151
+  // [scipy: x = [2.1, 3.4, 1.9, 8.7, 2.2, 2.8, 15.1, 3.0, 2.5, 4.4]]
+  it('turns g₂ into scipy’s unbiased kurtosis; unchanged below four values', () => {
+    expect(adjustedExcessKurtosis(10, 2.026297325791843)).toBeCloseTo(4.546489915239151, 12);
+    expect(adjustedExcessKurtosis(3, 1.5)).toBe(1.5);
   });
 });
