@@ -115,6 +115,38 @@ describe('measurement pad: bad input is refused, nothing saved', () => {
     expect(halfTyped.get()).toBe(true);
   });
 
+  it('a second tap while the write is in flight saves nothing; "Saving…" shows at once, "Saved" after the commit', async () => {
+    let commit: (v: { seq: number }) => void = () => undefined;
+    const onSave = vi.fn(() => new Promise<{ seq: number }>((r) => (commit = r)));
+    const { input, save } = setup('measurement', onSave);
+    type(input, '3.5');
+    fireEvent.click(save);
+    fireEvent.click(save); // the double tap
+    expect(onSave).toHaveBeenCalledTimes(1);
+    expect(save.textContent).toContain('Saving…');
+    expect(screen.getByTestId('pad-msg').getAttribute('data-committed')).toBeNull();
+    commit({ seq: 7 });
+    await waitFor(() => expect(message()).toBe('Saved #7: 3.5 mg/L'));
+    expect(screen.getByTestId('pad-msg').getAttribute('data-committed')).toBe('1');
+    expect(save.textContent).not.toContain('Saving');
+    await waitFor(() => expect(input.value).toBe(''));
+    expect(onSave).toHaveBeenCalledTimes(1);
+  });
+
+  it('a value keyed in while the write is in flight is the next entry: it stays on the pad', async () => {
+    let commit: (v: { seq: number }) => void = () => undefined;
+    const onSave = vi.fn(() => new Promise<{ seq: number }>((r) => (commit = r)));
+    const { input, save } = setup('measurement', onSave);
+    type(input, '3.5');
+    fireEvent.click(save);
+    fireEvent.click(screen.getByRole('button', { name: '4' }));
+    expect(input.value).toBe('3.54');
+    commit({ seq: 7 });
+    await waitFor(() => expect(message()).toBe('Saved #7: 3.5 mg/L'));
+    await new Promise((r) => setTimeout(r, 50));
+    expect(input.value).toBe('3.54');
+  });
+
   it('is fully disabled while the study loads', () => {
     render(<MeasurementPad disabled={true} onSave={vi.fn()} unit="mg/L" />);
     for (const b of screen.getAllByRole('button')) expect((b as HTMLButtonElement).disabled).toBe(true);
@@ -173,6 +205,21 @@ describe('pass/fail pad', () => {
     await waitFor(() => expect(onSave).toHaveBeenLastCalledWith({ value: 1 }));
     fireEvent.click(screen.getByRole('button', { name: 'no defect', exact: true }));
     await waitFor(() => expect(onSave).toHaveBeenLastCalledWith({ value: 0 }));
+    expect(onSave).toHaveBeenCalledTimes(2);
+  });
+  it('a tap while a save is in flight is refused (one tap, one item); the next tap after the commit saves', async () => {
+    let commit: (v: { seq: number }) => void = () => undefined;
+    const onSave = vi.fn(() => new Promise<{ seq: number }>((r) => (commit = r)));
+    render(<PassFailPad disabled={false} onSave={onSave} outcome="defect" other="no defect" />);
+    const yes = screen.getByRole('button', { name: 'defect', exact: true });
+    fireEvent.click(yes);
+    fireEvent.click(yes);
+    expect(onSave).toHaveBeenCalledTimes(1);
+    expect(screen.getByText('Saving…')).toBeTruthy();
+    commit({ seq: 1 });
+    await waitFor(() => expect(message()).toBe('Saved #1: defect'));
+    fireEvent.click(yes);
+    expect(onSave).toHaveBeenCalledTimes(2);
   });
 });
 
