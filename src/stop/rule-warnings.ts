@@ -76,6 +76,8 @@ export function ruleWarnings(setup: AnalysisSetup): string[] {
     w.push(
       'For rare outcomes (under about 5 %), a minimum of 20–30 items is recommended before any verdict.',
     );
+  const projection = projectionCaution(setup);
+  if (projection !== null) w.push(projection);
   if (rule === 'strict' && kind !== 'pass-fail')
     w.push(
       target?.kind === 'limit'
@@ -91,4 +93,28 @@ export function ruleWarnings(setup: AnalysisSetup): string[] {
       'The limit decision on counts assumes random (Poisson) counts unless you give the negative-binomial k; with clumped counts and no k its error rates are much larger than chosen.',
     );
   return w;
+}
+
+/**
+ * Where "how many more" plans worst, from test/bench/calibration.md (run of 2026-12-02, R = 2,000 per cell, at 10
+ * and 20 entries; its 10th–90th percentile range is meant to hold the entries the rule then needs about 80 % of
+ * the time). One sentence for the study's kind and target, or null under the other rules (they project nothing).
+ */
+function projectionCaution(setup: AnalysisSetup): string | null {
+  const { kind, rule, target } = setup;
+  if (rule !== 'standard' || target === undefined || target.kind === 'precision') return null;
+  const lead = '“How many more” is a planning figure, not a promise:';
+  if (target.kind === 'limit') {
+    const distance = `before a decision against a limit it depends on how close the true ${kind === 'pass-fail' ? 'rate' : 'value'} sits to the limit, which the first ${kind === 'pass-fail' ? 'items' : 'entries'} hardly tell, so its range is wide.`;
+    if (kind === 'pass-fail')
+      return `${lead} ${distance} With a rare outcome (5 % of the items or fewer) its likely figure was as low as a fifth of the items then needed in simulated lots; leave room in the day.`;
+    if (kind === 'measurement')
+      return `${lead} ${distance} On skewed values (most small, a few large) it still held the entries then needed in only 64–91 % of simulated studies, and its likely figure was as low as a third of them.`;
+    return `${lead} ${distance}`;
+  }
+  if (kind === 'measurement')
+    return `${lead} on skewed values (most small, a few large) or with a small area of much higher values its range held the entries the rule then needed in as few as 37–46 % of simulated studies instead of about 80 % — mostly because more were needed. Leave room in the day.`;
+  if (kind === 'count')
+    return `${lead} on clumped counts (many empty plots and a few crowded ones) its range held the plots the rule then needed in as few as 31–44 % of simulated surveys instead of about 80 %. Leave room in the day.`;
+  return `${lead} with a rare outcome (5 % of the items or fewer) its likely figure was between a third and twice the items then needed in simulated lots, until the first counted items show the rate.`;
 }
