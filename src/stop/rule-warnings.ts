@@ -107,14 +107,14 @@ function projectionCaution(setup: AnalysisSetup): string | null {
   if (target.kind === 'limit') {
     const distance = `before a decision against a limit it depends on how close the true ${kind === 'pass-fail' ? 'rate' : 'value'} sits to the limit, which the first ${kind === 'pass-fail' ? 'items' : 'entries'} hardly tell, so its range is wide.`;
     if (kind === 'pass-fail')
-      return `${lead} ${distance} With a rare outcome (5 % of the items or fewer) its likely figure was as low as a fifth of the items then needed in simulated lots; leave room in the day.`;
+      return `${lead} ${distance} With a rare outcome (5 % of the items or fewer) its likely figure was as low as a fifth of the items actually needed in simulated lots.`;
     if (kind === 'measurement')
       return `${lead} ${distance} On skewed values (most small, a few large) it still held the entries then needed in only 64–91 % of simulated studies, and its likely figure was as low as a third of them.`;
     return `${lead} ${distance}`;
   }
   if (kind === 'measurement')
-    return `${lead} on skewed values (most small, a few large) or with a small area of much higher values its range held the entries the rule then needed in as few as 37–46 % of simulated studies instead of about 80 % — mostly because more were needed. Leave room in the day.`;
+    return `${lead} on skewed values (most small, a few large) or with a small area of much higher values its range held the entries actually needed in as few as 37–46 % of simulated studies (about 80 % intended), mostly because more were needed.`;
   if (kind === 'count')
-    return `${lead} on clumped counts (many empty plots and a few crowded ones) its range held the plots the rule then needed in as few as 31–44 % of simulated surveys instead of about 80 %. Leave room in the day.`;
+    return `${lead} on clumped counts (many empty plots and a few crowded ones) its range held the plots actually needed in as few as 31–44 % of simulated surveys (about 80 % intended).`;
   return `${lead} with a rare outcome (5 % of the items or fewer) its likely figure was between a third and twice the items then needed in simulated lots, until the first counted items show the rate.`;
 }
