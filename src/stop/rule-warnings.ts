@@ -113,7 +113,7 @@ function projectionCaution(setup: AnalysisSetup): string | null {
     return `${lead} ${distance}`;
   }
   if (kind === 'measurement')
-    return `${lead} on skewed values (most small, a few large) or with a small area of much higher values its range held the entries actually needed in as few as 37–46 % of simulated studies (about 80 % intended), mostly because more were needed.`;
+    return `${lead} on skewed values (most small, a few large) or with a small area of much higher values its range held the entries actually needed in as few as 41–46 % of simulated studies (about 80 % intended), mostly because more were needed.`;
   if (kind === 'count')
     return `${lead} on clumped counts (many empty plots and a few crowded ones) its range held the plots actually needed in as few as 31–44 % of simulated surveys (about 80 % intended).`;
   return `${lead} with a rare outcome (5 % of the items or fewer) its likely figure was between a third and twice the items then needed in simulated lots, until the first counted items show the rate.`;

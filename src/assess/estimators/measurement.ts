@@ -152,7 +152,7 @@ export function measurementEstimator(summary: RunningSummary, setup: AnalysisSet
         if (method === 'cox' || method === 'land') {
           const s = summary.logSd;
           if (!(s > 0)) return null;
-          const at = (sy: number) => logScaleRelativeSampleSize(sy, target.value, p);
+          const at = (sy: number) => logScaleRelativeSampleSize(sy, target.value, p, sided);
           const logG2 = summary.logKurtosis;
           const df = logG2 === null ? n - 1 : boxVarianceDf(n, adjustedExcessKurtosis(n, logG2));
           return {

@@ -125,6 +125,17 @@ describe('log-scale relative target (Cox standard error, Zhou & Gao 1997)', () =
   it('s_y = 1, r = 0.25 → 118.5 [derived]', () => {
     expect(logScaleRelativeSampleSize(1, 0.25, 0.975)).toBeCloseTo(118.5, 1);
   });
+  // the side the target is checked on: two-sided (U − L)/2 = estimate·sinh(t·SE), below 1 − e^(−t·SE)
+  // [scipy: brentq on sinh(t.ppf(0.975, n − 1)·√(1/n + 1/(2(n − 1)))) = 0.25 → 96.84959886401629; on
+  //  1 − exp(−t.ppf(0.95, n − 1)·√(…)) = 0.25 → 51.23423953409522]
+  it('two-sided and lower-side half-widths: sinh and 1 − e^(−x) [scipy brentq]', () => {
+    expect(Math.abs(logScaleRelativeSampleSize(1, 0.25, 0.975, 'two') - 96.84959886401629)).toBeLessThan(
+      2e-3,
+    );
+    expect(Math.abs(logScaleRelativeSampleSize(1, 0.25, 0.95, 'lower') - 51.23423953409522)).toBeLessThan(
+      2e-3,
+    );
+  });
   it.each(fx.cases.logRelative)('s_y=$s_y r=$r vs scipy brentq [derived]', (c) => {
     expect(Math.abs(logScaleRelativeSampleSize(c.s_y, c.r, c.p) - c.n) / c.n).toBeLessThan(2e-5);
   });
