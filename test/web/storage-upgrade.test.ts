@@ -10,7 +10,7 @@ import { IDBFactory } from 'fake-indexeddb';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { getDb, resetDbForTests } from '../../web/storage/db.ts';
 import { listObservations, voidEntry } from '../../web/storage/observations.ts';
-import { DB_VERSION } from '../../web/storage/schema.ts';
+import { DB_NAME, DB_VERSION } from '../../web/storage/schema.ts';
 
 interface Fixture {
   database: string;
@@ -133,5 +133,41 @@ describe('schema version 1 → 2', () => {
     const db = await getDb();
     expect(db.version).toBe(DB_VERSION);
     expect(db.transaction('observations').store.index('byVoids').unique).toBe(false);
+  });
+});
+
+// public/warm-db.js opens the database before the app's script runs (a cold start's longest wait) and must
+// change nothing. W3C Indexed Database API 3.0, §5.8 "Aborting an upgrade transaction": the database's
+// version reverts to its previous version, and a database created by that open is deleted.
+describe('the start-up warm-up of the database (public/warm-db.js)', () => {
+  const script = readFileSync(new URL('../../public/warm-db.js', import.meta.url), 'utf8');
+  /** Runs the script and waits until its open has ended (opened and closed, or aborted). */
+  async function warm(): Promise<void> {
+    new Function(script)();
+    // the script's own request is not reachable: wait until no open is pending (a blocked open would hang)
+    for (let i = 0; i < 50; i++) await new Promise((r) => setTimeout(r, 5));
+  }
+
+  it('opens the app’s own database name and version', () => {
+    expect(script).toContain(`indexedDB.open('${DB_NAME}', ${DB_VERSION})`);
+  });
+  it('creates nothing on a phone without the database', async () => {
+    await warm();
+    expect(await indexedDB.databases()).toEqual([]);
+  });
+  it('leaves an older database as it was; the app’s own open then upgrades it with every record', async () => {
+    await writeV1();
+    await warm();
+    expect(await indexedDB.databases()).toEqual([{ name: fx.database, version: fx.version }]);
+    const db = await getDb();
+    expect(db.version).toBe(DB_VERSION);
+    expect((await listObservations(studyId)).length).toBe(fx.records.observations.length);
+  });
+  it('at the current version it opens and closes again: the app’s open is not blocked', async () => {
+    (await getDb()).close();
+    resetDbForTests();
+    await warm();
+    const db = await getDb();
+    expect(db.version).toBe(DB_VERSION);
   });
 });
