@@ -10,7 +10,7 @@ import { beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import type { StudySetup } from '../../src/index.ts';
 import { loadCore } from '../../web/core-loader.ts';
 import { type StudySession, TAIL } from '../../web/state/session.ts';
-import { openSession } from '../../web/state/use-study.ts';
+import { checkOpened, openSession } from '../../web/state/use-study.ts';
 import { getDb, resetDbForTests, StorageError } from '../../web/storage/db.ts';
 import { addEntry, listObservations, voidEntry } from '../../web/storage/observations.ts';
 import { writeSnapshot } from '../../web/storage/snapshots.ts';
@@ -123,6 +123,52 @@ describe('start from the running snapshot', () => {
     const s = await open(id, 'snapshot');
     expect(s.complete).toBe(true);
     expect(seen(s)).toEqual(seen(await open(id, 'log')));
+  });
+});
+
+describe('a cold start: the first frame from the snapshot, the remaining checks right after', () => {
+  // openSession(…, true) is the path of a start without the statistics core: the session is drawn once the
+  // snapshot's last record matches the log's; checkOpened then compares the log's count and runs the core's
+  // check, and false means the screen rebuilds from the log (web/state/use-study.ts)
+  it('a sound snapshot passes both checks and shows exactly what the log gives', async () => {
+    const id = await studyWith(60);
+    const o = await openSession(id, 'snapshot', true);
+    if (o.missing) throw new Error('study missing');
+    expect(o.session.complete).toBe(false);
+    expect(await checkOpened(o.session)).toBe(true);
+    expect(seen(o.session)).toEqual(seen(await open(id, 'log')));
+  });
+
+  it('a record added before the last one (same last record, one more in the count) fails the count check', async () => {
+    const id = await studyWith(40);
+    const db = await getDb();
+    const extra = {
+      id: crypto.randomUUID(),
+      studyId: id,
+      seq: 0,
+      at: '2026-12-01T10:00:00+00:00',
+      device: 'phone-B',
+      value: heat[40] as number,
+    };
+    await db.add('observations', extra);
+    const o = await openSession(id, 'snapshot', true);
+    if (o.missing) throw new Error('study missing');
+    expect(await checkOpened(o.session)).toBe(false);
+    // the rebuild from the log has it
+    expect((await open(id, 'log')).n).toBe(41);
+  });
+
+  it('running figures damaged beyond what the first frame reads fail the core’s check', async () => {
+    const id = await studyWith(40);
+    const db = await getDb();
+    const snap = (await db.get('snapshots', id)) as unknown as { running: Record<string, unknown> };
+    await db.put('snapshots', {
+      ...snap,
+      running: { ...snap.running, marks: [[5, 'yes', null, null]] },
+    } as never);
+    const o = await openSession(id, 'snapshot', true);
+    if (o.missing) throw new Error('study missing');
+    expect(await checkOpened(o.session)).toBe(false);
   });
 });
 

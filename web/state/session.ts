@@ -102,14 +102,18 @@ export class StudySession {
 
   /**
    * A session from a stored snapshot already matched against the log (count and last id); null when it
-   * cannot be restored. With the core loaded the snapshot is checked in full (`verify`); before, only what
-   * the first frame reads is, and `verify()` must pass once the core is there.
+   * cannot be restored. With `checkNow` (by default when the core has loaded) the snapshot is checked in
+   * full (`verify`); else only what the first frame reads is, and `verify()` must pass once the core is there.
    */
-  static fromSnapshot(study: StoredStudy, snap: StoredSnapshot): StudySession | null {
+  static fromSnapshot(
+    study: StoredStudy,
+    snap: StoredSnapshot,
+    checkNow = coreIfLoaded() !== null,
+  ): StudySession | null {
     const pace = Pace.restore(snap.pace);
     if (pace === null || !drawable(study.setup, snap.running)) return null;
     const s = new StudySession(study, snap.tail, { running: snap.running, pace, count: snap.count });
-    return coreIfLoaded() === null || s.verify() ? s : null;
+    return !checkNow || s.verify() ? s : null;
   }
 
   /**

@@ -19,7 +19,7 @@
  */
 import { useCallback, useLayoutEffect, useRef, useState } from 'preact/hooks';
 import type { Assessment, ObservationRecord } from '../core.ts';
-import { loadCore } from '../core-loader.ts';
+import { coreIfLoaded, loadCore } from '../core-loader.ts';
 import { StorageError } from '../storage/db.ts';
 import { exportedUpTo } from '../storage/exports.ts';
 import {
@@ -29,7 +29,7 @@ import {
   type NewEntry,
   voidEntry,
 } from '../storage/observations.ts';
-import { matchesLog, readStart, writeSnapshot } from '../storage/snapshots.ts';
+import { matchesLast, readStart, writeSnapshot } from '../storage/snapshots.ts';
 import { getStudy } from '../storage/studies.ts';
 import { device, deviceReady } from './app-state.ts';
 import { StudySession } from './session.ts';
@@ -63,24 +63,57 @@ export type OpenFrom = 'log' | 'snapshot';
 
 type Opened = { missing: true } | { missing: false; session: StudySession };
 
-/** Reads a study into a session: from its snapshot when asked and sound, else from the whole log. */
-export async function openSession(id: string, from: OpenFrom): Promise<Opened> {
+/**
+ * The checks a snapshot session still owes after its first frame: the log's record count against the
+ * snapshot's (true when equal). The core's own check (`StudySession.verify`) follows it.
+ */
+const countChecks = new WeakMap<StudySession, Promise<boolean>>();
+
+/**
+ * Reads a study into a session: from its snapshot when asked and sound, else from the whole log. With the
+ * core loaded every check of the snapshot is made here; without it (a cold start: `firstFrame`) the session
+ * is returned once the snapshot's last record matches the log's, and `checkOpened` makes the rest — the
+ * log's count, the core's check — after the first frame.
+ */
+export async function openSession(
+  id: string,
+  from: OpenFrom,
+  firstFrame = coreIfLoaded() === null,
+): Promise<Opened> {
   // the strata panel reads every counted entry from the records: a stratified study opens from its log
   if (from === 'snapshot') {
     const start = await readStart(id);
     if (!start.study) return { missing: true };
-    if (
-      !start.study.setup.strata?.length &&
-      start.snapshot &&
-      matchesLog(start.snapshot, start.count, start.last)
-    ) {
-      const s = StudySession.fromSnapshot(start.study, start.snapshot);
-      if (s) return { missing: false, session: s };
+    const snap = start.snapshot;
+    if (!start.study.setup.strata?.length && snap && matchesLast(snap, start.last)) {
+      const s = StudySession.fromSnapshot(start.study, snap, !firstFrame);
+      if (s && firstFrame) {
+        countChecks.set(
+          s,
+          start.count.then(
+            (n) => n === snap.count,
+            () => false,
+          ),
+        );
+        return { missing: false, session: s };
+      }
+      if (s && (await start.count) === snap.count && (await checkOpened(s)))
+        return { missing: false, session: s };
     }
   }
   const [study, records] = await Promise.all([getStudy(id), listObservations(id), loadCore()]);
   if (!study) return { missing: true };
   return { missing: false, session: new StudySession(study, records) };
+}
+
+/**
+ * The checks of a session that `openSession` left for after the first frame: true when the snapshot it was
+ * opened from matches the log's count and passes the core's check (or it was read from the log); false
+ * when it must be rebuilt from the log. Loads the core.
+ */
+export async function checkOpened(s: StudySession): Promise<boolean> {
+  const [countOk] = await Promise.all([countChecks.get(s) ?? true, loadCore()]);
+  return countOk && s.verify();
 }
 
 /** The core's check of each session opened (one per session, shared by whoever waits for it). */
@@ -189,8 +222,8 @@ export function useStudy(id: string, from: OpenFrom = 'log'): StudyView {
     (s: StudySession): Promise<StudySession> => {
       let p = checks.get(s);
       if (p === undefined) {
-        p = loadCore().then(async () => {
-          if (s.verify() || ref.current !== s) return ref.current ?? s;
+        p = checkOpened(s).then(async (ok) => {
+          if (ok || ref.current !== s) return ref.current ?? s;
           const rebuilt = await reload();
           setVersion((v) => v + 1);
           return rebuilt;

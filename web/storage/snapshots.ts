@@ -33,29 +33,51 @@ function studyRange(studyId: string): IDBKeyRange {
 export interface StartRead {
   study: StoredStudy | undefined;
   snapshot: StoredSnapshot | undefined;
-  /** The log as it is now: its record count and its last record. */
-  count: number;
+  /** The log's last record now. */
   last: ObservationRecord | undefined;
+  /**
+   * The log's record count now. Answered after the rest: counting walks the study's whole index (tens of
+   * milliseconds at 5,000 entries), so a screen may draw from a snapshot whose last record matches and
+   * check the count right after (web/state/use-study.ts).
+   */
+  count: Promise<number>;
 }
 
 /**
- * One read-only transaction for the start of the field screen: the study, its snapshot, and the log's
- * count and last record (an index count and a one-step cursor — the log itself is not read).
+ * One read-only transaction for the start of the field screen: the study, its snapshot, the log's last
+ * record (a one-step cursor) and its count (an index count) — the log itself is not read.
  */
 export async function readStart(studyId: string): Promise<StartRead> {
   const db = await getDb();
   const tx = db.transaction(['studies', 'snapshots', 'observations']);
   const idx = tx.objectStore('observations').index('byStudySeq');
-  const [study, snapshot, count, cursor] = await Promise.all([
+  const first = Promise.all([
     tx.objectStore('studies').get(studyId),
     tx.objectStore('snapshots').get(studyId),
-    idx.count(studyRange(studyId)),
     idx.openCursor(studyRange(studyId), 'prev'),
   ]);
+  // asked last: a transaction answers its requests in order, and the count is the slow one
+  const count = idx.count(studyRange(studyId));
+  count.catch(() => undefined);
   // read-only: the answers are final once each request has succeeded; waiting for the transaction's
-  // complete event as well would only delay the first frame (a failed request rejects above)
+  // complete event as well would only delay the first frame (a failed request rejects)
   tx.done.catch(() => undefined);
-  return { study, snapshot, count, last: cursor?.value };
+  const [study, snapshot, cursor] = await first;
+  return { study, snapshot, last: cursor?.value, count };
+}
+
+/**
+ * True when the snapshot is of this version and was taken at the log's last record (same id; its kept
+ * records end there). The count must match as well (`matchesLog`).
+ */
+export function matchesLast(s: StoredSnapshot | undefined, last: ObservationRecord | undefined) {
+  return (
+    s !== undefined &&
+    s.version === SESSION_SNAPSHOT_VERSION &&
+    s.lastId === (last?.id ?? null) &&
+    Array.isArray(s.tail) &&
+    (s.tail.at(-1)?.id ?? null) === s.lastId
+  );
 }
 
 /** True when the snapshot was taken from the log as it is now (same count, same last record). */
@@ -64,14 +86,7 @@ export function matchesLog(
   count: number,
   last: ObservationRecord | undefined,
 ) {
-  return (
-    s !== undefined &&
-    s.version === SESSION_SNAPSHOT_VERSION &&
-    s.count === count &&
-    s.lastId === (last?.id ?? null) &&
-    Array.isArray(s.tail) &&
-    (s.tail.at(-1)?.id ?? null) === s.lastId
-  );
+  return matchesLast(s, last) && (s as StoredSnapshot).count === count;
 }
 
 /** Stores (replaces) the study's snapshot. Relaxed durability: it is a cache, rebuilt when lost. */
