@@ -59,7 +59,9 @@ describe('the how-many-more caution states the calibration run', () => {
     expect(Math.max(...ratios)).toBeLessThan(2.3);
     const pf = { ...base, kind: 'pass-fail' } as const;
     expect(caution({ ...pf, target: { kind: 'limit', value: 0.05 } })).toContain('as low as a fifth');
-    expect(caution({ ...pf, target: { kind: 'margin', value: 0.05 } })).toContain('between a third and twice');
+    expect(caution({ ...pf, target: { kind: 'margin', value: 0.05 } })).toContain(
+      'between a third and twice',
+    );
   });
   it('only the standard rule with a target projects, so only it is cautioned', () => {
     expect(caution({ ...base, rule: 'naive', target: { kind: 'margin', value: 1 } })).toBeNull();
