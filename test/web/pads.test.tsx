@@ -27,6 +27,13 @@ function setup(
 const type = (input: HTMLInputElement, text: string) => fireEvent.input(input, { target: { value: text } });
 const message = () => screen.getByTestId('pad-msg').textContent ?? '';
 
+/** A write that commits when the test says so. */
+function deferredSave() {
+  let commit: (v: { seq: number }) => void = () => undefined;
+  const onSave = vi.fn(() => new Promise<{ seq: number }>((r) => (commit = r)));
+  return { onSave, commit: (v: { seq: number }) => commit(v) };
+}
+
 describe('measurement pad: bad input is refused, nothing saved', () => {
   const cases: [string, RegExp][] = [
     ['', /Value: nothing typed yet/],
@@ -116,8 +123,7 @@ describe('measurement pad: bad input is refused, nothing saved', () => {
   });
 
   it('a second tap while the write is in flight saves nothing; "Saving…" shows at once, "Saved" after the commit', async () => {
-    let commit: (v: { seq: number }) => void = () => undefined;
-    const onSave = vi.fn(() => new Promise<{ seq: number }>((r) => (commit = r)));
+    const { onSave, commit } = deferredSave();
     const { input, save } = setup('measurement', onSave);
     type(input, '3.5');
     fireEvent.click(save);
@@ -133,18 +139,18 @@ describe('measurement pad: bad input is refused, nothing saved', () => {
     expect(onSave).toHaveBeenCalledTimes(1);
   });
 
-  it('a value keyed in while the write is in flight is the next entry: it stays on the pad', async () => {
-    let commit: (v: { seq: number }) => void = () => undefined;
-    const onSave = vi.fn(() => new Promise<{ seq: number }>((r) => (commit = r)));
+  it('a key tapped while the write is in flight changes nothing: it never lands in the value being saved', async () => {
+    const { onSave, commit } = deferredSave();
     const { input, save } = setup('measurement', onSave);
     type(input, '3.5');
     fireEvent.click(save);
     fireEvent.click(screen.getByRole('button', { name: '4' }));
-    expect(input.value).toBe('3.54');
+    fireEvent.click(screen.getByRole('button', { name: 'Delete last character' }));
+    expect(input.value).toBe('3.5');
     commit({ seq: 7 });
     await waitFor(() => expect(message()).toBe('Saved #7: 3.5 mg/L'));
-    await new Promise((r) => setTimeout(r, 50));
-    expect(input.value).toBe('3.54');
+    await waitFor(() => expect(input.value).toBe(''));
+    expect(onSave).toHaveBeenCalledTimes(1);
   });
 
   it('is fully disabled while the study loads', () => {
@@ -208,8 +214,7 @@ describe('pass/fail pad', () => {
     expect(onSave).toHaveBeenCalledTimes(2);
   });
   it('a tap while a save is in flight is refused (one tap, one item); the next tap after the commit saves', async () => {
-    let commit: (v: { seq: number }) => void = () => undefined;
-    const onSave = vi.fn(() => new Promise<{ seq: number }>((r) => (commit = r)));
+    const { onSave, commit } = deferredSave();
     render(<PassFailPad disabled={false} onSave={onSave} outcome="defect" other="no defect" />);
     const yes = screen.getByRole('button', { name: 'defect', exact: true });
     fireEvent.click(yes);

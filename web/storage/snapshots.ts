@@ -68,7 +68,7 @@ export async function readStart(studyId: string): Promise<StartRead> {
 
 /**
  * True when the snapshot is of this version and was taken at the log's last record (same id; its kept
- * records end there). The count must match as well (`matchesLog`).
+ * records end there). The log's count must match the snapshot's as well: web/state/use-study.ts checks it.
  */
 export function matchesLast(s: StoredSnapshot | undefined, last: ObservationRecord | undefined) {
   return (
@@ -78,15 +78,6 @@ export function matchesLast(s: StoredSnapshot | undefined, last: ObservationReco
     Array.isArray(s.tail) &&
     (s.tail.at(-1)?.id ?? null) === s.lastId
   );
-}
-
-/** True when the snapshot was taken from the log as it is now (same count, same last record). */
-export function matchesLog(
-  s: StoredSnapshot | undefined,
-  count: number,
-  last: ObservationRecord | undefined,
-) {
-  return matchesLast(s, last) && (s as StoredSnapshot).count === count;
 }
 
 /** Stores (replaces) the study's snapshot. Relaxed durability: it is a cache, rebuilt when lost. */

@@ -122,8 +122,6 @@ export function countEstimator(summary: RunningSummary, setup: AnalysisSetup): E
     const p = target.kind === 'limit' ? level : quantileProbability(level, sided);
     const z = cachedNormalQuantile(p);
     const withPop = population === undefined ? {} : { population };
-    // 80 % two-sided quasi-Poisson interval for m: the 10th and 90th percentiles
-    const band = quasiPoissonInterval(total, n, phi, 0.8, 'two');
     const at = (mm: number): number => {
       if (target.kind === 'limit') {
         const d = Math.abs(mm - target.value);
@@ -181,6 +179,8 @@ export function countEstimator(summary: RunningSummary, setup: AnalysisSetup): E
         basis: `t fixed point with the observed SD, range from the chi-square distribution of σ (${planningWords})`,
       };
     }
+    // 80 % two-sided quasi-Poisson interval for m: the 10th and 90th percentiles
+    const band = quasiPoissonInterval(total, n, phi, 0.8, 'two');
     const likely = at(m);
     const a = at(band.lower);
     const b = at(band.upper);

@@ -141,8 +141,8 @@ export function useSaver(props: PadProps, padKey: string, dirty: boolean, note: 
       return;
     }
     // committed: "Saved #k" now, written into its line; the pad's render (clearing the value and the note)
-    // follows that frame. Until then a second tap is refused when it would save the same value or note
-    // again; the pass/fail pad holds neither, and each of its taps is a new item.
+    // follows that frame. Until then a second tap and any edit are refused (they would save or change the
+    // value just saved); the pass/fail pad holds no value, and each of its taps is a new item.
     const words = `Saved #${saved.seq}: ${what}`;
     showSaving(slot.current, false);
     if (!holdsValue && !text) inFlight.current = false;
@@ -181,5 +181,7 @@ export function useSaver(props: PadProps, padKey: string, dirty: boolean, note: 
     const n = checkNote(note.note);
     if (p && n.ok) void commit(p.entry, p.onDone, p.what, n.text);
   };
-  return { msg, setMsg, slot, line, save, pending, keep, change: () => setPending(null) };
+  /** True while a save is in flight: the pads ignore edits then, so a key never lands in the value being saved. */
+  const saving = () => inFlight.current;
+  return { msg, setMsg, slot, line, save, saving, pending, keep, change: () => setPending(null) };
 }

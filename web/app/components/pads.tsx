@@ -4,7 +4,7 @@
  * On a failed write the typed value stays in the pad; "Saved" appears only after the commit.
  */
 import type { ComponentChildren } from 'preact';
-import { useRef, useState } from 'preact/hooks';
+import { type StateUpdater, useState } from 'preact/hooks';
 import { NOTE_MAX, parseCount, parseMeasurement } from '../../input/parse.ts';
 import type { NewEntry } from '../../storage/observations.ts';
 import { type Sep, sepName } from '../number-style.ts';
@@ -143,16 +143,17 @@ function NoteToggle(props: { note: Note; disabled: boolean; cls?: string }) {
 }
 
 export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?: number | undefined }) {
-  const [text, setText] = useState('');
+  const [text, setTextNow] = useState('');
   const [censored, setCensored] = useState(false);
-  /** The text as last rendered, for the save's clean-up (keys stay live while a save is in flight). */
-  const typed = useRef(text);
-  typed.current = text;
   const n = useNote();
   const dirty = text !== '' || n.note.trim() !== '';
   const saver = useSaver(props, 'measurement', dirty, n);
   const { msg, setMsg, save } = saver;
-  // keys stay live while a save is in flight (the saver refuses a second save): nothing re-renders on a tap
+  // the keys are not disabled while a save is in flight (that would re-render the pad on the tap path);
+  // their edits are ignored instead, so a key never lands in the value being saved
+  const setText = (v: StateUpdater<string>) => {
+    if (!saver.saving()) setTextNow(v);
+  };
   const off = props.disabled;
   const sep = props.sep ?? '.';
   const type = (s: string) => {
@@ -175,15 +176,14 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
     void save(
       p.ok ? { value: p.value, ...(censored ? { censored: true } : {}) } : { error: p.message },
       () => {
-        // clears what was saved; a value keyed in meanwhile is the next entry's and stays
-        if (typed.current !== text) return;
-        setText('');
+        setTextNow('');
         setCensored(false);
       },
       `${censored ? '< ' : ''}${p.ok ? String(p.value).replace('.', sep) : text.trim()} ${props.unit}`.trim(),
     );
   };
   const toggleRl = () => {
+    if (saver.saving()) return;
     setCensored((c) => !c);
     if (!censored && text === '' && props.reportingLimit !== undefined) setText(String(props.reportingLimit));
   };
@@ -244,11 +244,15 @@ export function MeasurementPad(props: PadProps & { unit: string; reportingLimit?
 }
 
 export function CountPad(props: PadProps) {
-  const [text, setText] = useState('0');
+  const [text, setTextNow] = useState('0');
   const n = useNote();
   const dirty = (text !== '0' && text !== '') || n.note.trim() !== '';
   const saver = useSaver(props, 'count', dirty, n);
   const { msg, setMsg, save } = saver;
+  // edits are ignored while a save is in flight, as on the measurement pad
+  const setText = (v: StateUpdater<string>) => {
+    if (!saver.saving()) setTextNow(v);
+  };
   const off = props.disabled;
   const parsed = parseCount(text);
   const step = (d: number) => {
@@ -260,7 +264,7 @@ export function CountPad(props: PadProps) {
     const p = parseCount(text, 'Count');
     void save(
       p.ok ? { value: p.value } : { error: p.message },
-      () => setText((t) => (t === text ? '0' : t)),
+      () => setTextNow('0'),
       `${text.trim()} in the plot`,
     );
   };
